@@ -1,0 +1,44 @@
+import { build } from 'vite'
+import { DEMO_PASSWORD, DEMO_USERS } from '../server/demo/seed'
+import { ConfigError, loadConfig } from '../server/config'
+import { runServer } from '../server/server'
+import { ClusterError } from './lib/postgres-cluster'
+import { prepareLocalDatabase } from './lib/local-database'
+
+/**
+ * `npm start`: PostgreSQL (installed and started when needed), migrations, demo data, the built
+ * client, and the app + API on http://127.0.0.1:8080. Ctrl-C stops the server and the cluster.
+ */
+async function main() {
+  const config = loadConfig()
+  const log = (line: string) => console.log(`[stringline] ${line}`)
+  const database = await prepareLocalDatabase(config.dataDir, log)
+  let running: Awaited<ReturnType<typeof runServer>> | undefined
+  let stopping = false
+  const shutdown = async () => {
+    if (stopping) return
+    stopping = true
+    log('Stopping…')
+    await running?.close().catch(() => {})
+    database.stop()
+    log('Stopped.')
+    process.exit(0)
+  }
+  process.once('SIGINT', () => void shutdown())
+  process.once('SIGTERM', () => void shutdown())
+
+  if (process.env.SKIP_CLIENT_BUILD !== 'true') {
+    log('Building the client…')
+    await build({ logLevel: 'warn' })
+  }
+  running = await runServer(config, database.url, { demo: true })
+  log(`Open ${running.url} — demo sign-ins (local use only), password "${DEMO_PASSWORD}":`)
+  for (const user of DEMO_USERS) log(`  ${user.role.padEnd(12)} ${user.email}`)
+  log('Press Ctrl-C to stop.')
+}
+
+main().catch((err: unknown) => {
+  if (err instanceof ConfigError || err instanceof ClusterError) console.error(`[stringline] ${err.message}`)
+  else console.error(err)
+  process.exit(1)
+})

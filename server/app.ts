@@ -1,0 +1,56 @@
+import 'reflect-metadata'
+import { existsSync } from 'node:fs'
+import path from 'node:path'
+import cookieParser from 'cookie-parser'
+import express, { type Express } from 'express'
+import helmet from 'helmet'
+import { pino, type Logger } from 'pino'
+import { pinoHttp } from 'pino-http'
+import type { DataSource } from 'typeorm'
+import { createAuthenticator } from './auth/guard'
+import type { AppConfig } from './config'
+import { apiNotFound, errorHandler, requireJsonBody } from './http/error-handler'
+import { mountRoutes } from './http/mount'
+import { buildRoutes } from './routes'
+import { createServices } from './services'
+
+export interface AppDeps {
+  db: DataSource
+  config: AppConfig
+  logger?: Logger
+}
+
+/** The Express app, separate from `listen` so tests drive it with supertest. */
+export function createApp({ db, config, logger = pino({ level: config.logLevel }) }: AppDeps): Express {
+  const services = createServices(db, config)
+  const requireRoles = createAuthenticator(config, services.auth)
+  const app = express()
+  app.disable('x-powered-by')
+  app.set('trust proxy', config.trustProxy)
+  app.use(
+    helmet({
+      contentSecurityPolicy: {
+        directives: { 'img-src': ["'self'", 'data:', 'blob:'], 'style-src': ["'self'", "'unsafe-inline'"] },
+      },
+    }),
+  )
+  app.use(
+    pinoHttp({
+      logger,
+      redact: ['req.headers.authorization', 'req.headers.cookie', 'res.headers["set-cookie"]'],
+      autoLogging: { ignore: (req) => req.url === '/api/health' },
+    }),
+  )
+  app.use('/api', requireJsonBody, express.json({ limit: config.jsonBodyLimit }), cookieParser())
+  app.use(mountRoutes(buildRoutes(config), services, requireRoles))
+  app.use('/api', apiNotFound)
+
+  const indexHtml = path.join(config.clientDir, 'index.html')
+  if (existsSync(indexHtml)) {
+    app.use(express.static(config.clientDir, { index: false, maxAge: '1h' }))
+    // the client routes in the browser: every other GET answers the app page
+    app.get(/^(?!\/api\/).*/, (_req, res) => res.sendFile(indexHtml))
+  }
+  app.use(errorHandler(logger))
+  return app
+}

@@ -1,0 +1,33 @@
+import { createHash, randomBytes } from 'node:crypto'
+import jwt from 'jsonwebtoken'
+import type { Role } from '../../shared/auth/roles'
+
+/** The only algorithm accepted; pinned on both signing and verifying. */
+export const JWT_ALGORITHM = 'HS256'
+export const JWT_ISSUER = 'stringline'
+export const JWT_AUDIENCE = 'stringline-api'
+
+export interface AccessClaims {
+  sub: string
+  org: string
+  role: Role
+}
+
+export function signAccessToken(claims: AccessClaims, secret: string, ttlSeconds: number): string {
+  return jwt.sign({ org: claims.org, role: claims.role }, secret, {
+    algorithm: JWT_ALGORITHM,
+    subject: claims.sub,
+    issuer: JWT_ISSUER,
+    audience: JWT_AUDIENCE,
+    expiresIn: ttlSeconds,
+  })
+}
+
+/** A new opaque refresh token: 256 random bits. Only its hash is stored. */
+export function newRefreshToken(): string {
+  return randomBytes(32).toString('base64url')
+}
+
+export function hashRefreshToken(token: string): string {
+  return createHash('sha256').update(token).digest('hex')
+}

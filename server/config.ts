@@ -1,0 +1,94 @@
+import { randomBytes } from 'node:crypto'
+import { existsSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs'
+import path from 'node:path'
+
+/** Runtime settings, all from the environment (see .env.example). */
+export interface AppConfig {
+  nodeEnv: 'production' | 'development' | 'test'
+  port: number
+  host: string
+  /** Git-ignored folder for the local cluster, generated secrets and stored files. */
+  dataDir: string
+  jwtSecret: string
+  /** Access-token lifetime [s]; at most 15 minutes. */
+  accessTokenTtlSeconds: number
+  /** Refresh-token lifetime [s]. */
+  refreshTokenTtlSeconds: number
+  /** bcrypt cost factor; never below 12. */
+  bcryptCost: number
+  /** Folder of the built client; served when it holds an index.html. */
+  clientDir: string
+  /** Largest JSON body accepted. */
+  jsonBodyLimit: string
+  logLevel: string
+  /** Sign-in attempts per client address per 15 minutes. */
+  loginLimitPerIp: number
+  /** Failed sign-in attempts per account per 15 minutes. */
+  loginLimitPerAccount: number
+  /** Express `trust proxy` setting, for the client address behind a reverse proxy. */
+  trustProxy: string | false
+}
+
+export class ConfigError extends Error {}
+
+const MAX_ACCESS_TTL_SECONDS = 15 * 60
+const MIN_BCRYPT_COST = 12
+
+function readNodeEnv(value: string | undefined): AppConfig['nodeEnv'] {
+  if (value === 'production' || value === 'test') return value
+  return 'development'
+}
+
+/**
+ * The signing secret: from JWT_SECRET, or outside production a generated one kept in the data
+ * folder so that sign-ins survive a restart. Production refuses to start without one.
+ */
+function resolveJwtSecret(env: NodeJS.ProcessEnv, nodeEnv: AppConfig['nodeEnv'], dataDir: string): string {
+  const fromEnv = env.JWT_SECRET
+  if (fromEnv) {
+    if (fromEnv.length < 32) throw new ConfigError('JWT_SECRET must be at least 32 characters')
+    return fromEnv
+  }
+  if (nodeEnv === 'production') throw new ConfigError('JWT_SECRET must be set in production')
+  const file = path.join(dataDir, 'jwt-secret')
+  if (existsSync(file)) return readFileSync(file, 'utf8').trim()
+  mkdirSync(dataDir, { recursive: true })
+  const secret = randomBytes(48).toString('base64url')
+  writeFileSync(file, secret, { mode: 0o600 })
+  return secret
+}
+
+function positiveInt(env: NodeJS.ProcessEnv, name: string, fallback: number): number {
+  const raw = env[name]
+  if (raw === undefined || raw === '') return fallback
+  const value = Number(raw)
+  if (!Number.isInteger(value) || value <= 0) throw new ConfigError(`${name} must be a positive whole number`)
+  return value
+}
+
+export function loadConfig(env: NodeJS.ProcessEnv = process.env): AppConfig {
+  const nodeEnv = readNodeEnv(env.NODE_ENV)
+  const dataDir = path.resolve(env.DATA_DIR ?? '.data')
+  const accessTokenTtlSeconds = positiveInt(env, 'ACCESS_TOKEN_TTL_SECONDS', 10 * 60)
+  if (accessTokenTtlSeconds > MAX_ACCESS_TTL_SECONDS) {
+    throw new ConfigError(`ACCESS_TOKEN_TTL_SECONDS must be at most ${MAX_ACCESS_TTL_SECONDS}`)
+  }
+  const bcryptCost = positiveInt(env, 'BCRYPT_COST', MIN_BCRYPT_COST)
+  if (bcryptCost < MIN_BCRYPT_COST) throw new ConfigError(`BCRYPT_COST must be at least ${MIN_BCRYPT_COST}`)
+  return {
+    nodeEnv,
+    port: positiveInt(env, 'PORT', 8080),
+    host: env.HOST ?? '127.0.0.1',
+    dataDir,
+    jwtSecret: resolveJwtSecret(env, nodeEnv, dataDir),
+    accessTokenTtlSeconds,
+    refreshTokenTtlSeconds: positiveInt(env, 'REFRESH_TOKEN_TTL_SECONDS', 14 * 24 * 3600),
+    bcryptCost,
+    clientDir: path.resolve(env.CLIENT_DIR ?? 'dist/client'),
+    jsonBodyLimit: env.JSON_BODY_LIMIT ?? '1mb',
+    logLevel: env.LOG_LEVEL ?? (nodeEnv === 'test' ? 'silent' : 'info'),
+    loginLimitPerIp: positiveInt(env, 'LOGIN_LIMIT_PER_IP', 30),
+    loginLimitPerAccount: positiveInt(env, 'LOGIN_LIMIT_PER_ACCOUNT', 5),
+    trustProxy: env.TRUST_PROXY || false,
+  }
+}

@@ -1,0 +1,54 @@
+import type { DataSource } from 'typeorm'
+import type { Role } from '../../shared/auth/roles'
+import { hashPassword } from '../auth/passwords'
+import { OrganizationEntity, UserEntity } from '../entities'
+
+/**
+ * Demo data: an invented installer in an invented town. The passwords are for local use only and
+ * are printed in the README.
+ */
+export const DEMO_ORGANIZATION = { slug: 'larkspur-valley-solar', name: 'Larkspur Valley Solar Co.' }
+export const DEMO_PASSWORD = 'cedar-hollow-demo'
+
+interface DemoUser {
+  email: string
+  name: string
+  role: Role
+  licence?: { number: string; region: string; expiry: string }
+}
+
+export const DEMO_USERS: DemoUser[] = [
+  { email: 'admin@larkspur-solar.example', name: 'Rowan Ashdown', role: 'admin' },
+  { email: 'designer@larkspur-solar.example', name: 'Imani Okafor', role: 'designer' },
+  {
+    email: 'reviewer@larkspur-solar.example',
+    name: 'Teodor Lindqvist',
+    role: 'reviewer',
+    licence: { number: 'EC-40718 (demo)', region: 'Cedar Hollow County (invented)', expiry: '2028-06-30' },
+  },
+  { email: 'coordinator@larkspur-solar.example', name: 'Priya Venkataraman', role: 'coordinator' },
+]
+
+/** Loads the demo organisation and users once; later runs find them and change nothing. */
+export async function seedDemo(db: DataSource, bcryptCost: number): Promise<'created' | 'present'> {
+  return db.transaction(async (manager) => {
+    const orgs = manager.getRepository(OrganizationEntity)
+    if (await orgs.existsBy({ slug: DEMO_ORGANIZATION.slug })) return 'present'
+    const org = await orgs.save(DEMO_ORGANIZATION)
+    const passwordHash = await hashPassword(DEMO_PASSWORD, bcryptCost)
+    await manager.getRepository(UserEntity).save(
+      DEMO_USERS.map((u) => ({
+        organizationId: org.id,
+        email: u.email,
+        name: u.name,
+        role: u.role,
+        passwordHash,
+        active: true,
+        licenceNumber: u.licence?.number ?? null,
+        licenceRegion: u.licence?.region ?? null,
+        licenceExpiry: u.licence?.expiry ?? null,
+      })),
+    )
+    return 'created'
+  })
+}

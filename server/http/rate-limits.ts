@@ -1,0 +1,32 @@
+import type { RequestHandler } from 'express'
+import { rateLimit } from 'express-rate-limit'
+import type { AppConfig } from '../config'
+import { HttpError } from './errors'
+
+const WINDOW_MS = 15 * 60 * 1000
+
+const tooMany = (message: string): RequestHandler => (_req, _res, next) => next(new HttpError(429, 'rate_limited', message))
+
+/**
+ * Sign-in limits: every attempt counts per client address, failed attempts count per account.
+ * The store is per process; behind several API processes each keeps its own count.
+ */
+export function loginRateLimits(config: AppConfig): RequestHandler[] {
+  const perIp = rateLimit({
+    windowMs: WINDOW_MS,
+    limit: config.loginLimitPerIp,
+    standardHeaders: 'draft-8',
+    legacyHeaders: false,
+    handler: tooMany('Too many sign-in attempts from this address; wait 15 minutes and try again'),
+  })
+  const perAccount = rateLimit({
+    windowMs: WINDOW_MS,
+    limit: config.loginLimitPerAccount,
+    standardHeaders: false,
+    legacyHeaders: false,
+    skipSuccessfulRequests: true,
+    keyGenerator: (req) => `account:${String((req.body as { email?: unknown } | undefined)?.email ?? '').trim().toLowerCase()}`,
+    handler: tooMany('Too many failed sign-in attempts for this account; wait 15 minutes and try again'),
+  })
+  return [perIp, perAccount]
+}

@@ -1,0 +1,53 @@
+import type { Request, RequestHandler, Response } from 'express'
+import type { z } from 'zod'
+import type { Role } from '../../shared/auth/roles'
+import type { AuthUser } from '../auth/auth-user'
+import type { Services } from '../services'
+
+/** Who may call a route: nobody signed in needed, or the listed roles. */
+export type Access = 'public' | readonly Role[]
+
+export interface RouteContext<B, Q, P> {
+  /** The signed-in user; null only on public routes. */
+  user: AuthUser | null
+  body: B
+  query: Q
+  params: P
+  services: Services
+  req: Request
+  res: Response
+}
+
+/** A response with a status other than 200; `body` undefined sends no content. */
+export class Reply {
+  constructor(
+    readonly status: number,
+    readonly body?: unknown,
+  ) {}
+}
+
+export interface RouteDef<B = unknown, Q = unknown, P = unknown> {
+  method: 'get' | 'post' | 'put' | 'patch' | 'delete'
+  /** Express path under the app root, e.g. `/api/users/:id`. */
+  path: string
+  /** Declared here, enforced by the router, walked by the route-table test. */
+  access: Access
+  /** One line for the API documentation. */
+  summary: string
+  body?: z.ZodType<B>
+  query?: z.ZodType<Q>
+  params?: z.ZodType<P>
+  /** Extra middleware run before validation, e.g. rate limits. */
+  before?: RequestHandler[]
+  /** Returns the JSON body (200), a `Reply`, or undefined (204). */
+  handler: (ctx: RouteContext<B, Q, P>) => unknown
+}
+
+/** Declares a route; the generic parameters come from the zod schemas. */
+export function route<B = undefined, Q = undefined, P = undefined>(def: RouteDef<B, Q, P>): RouteDef<B, Q, P> {
+  return def
+}
+
+/** A route of any shape, for tables of routes. */
+// eslint-disable-next-line @typescript-eslint/no-explicit-any
+export type AnyRoute = RouteDef<any, any, any>

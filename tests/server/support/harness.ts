@@ -1,0 +1,89 @@
+import { randomBytes } from 'node:crypto'
+import { mkdtempSync } from 'node:fs'
+import os from 'node:os'
+import path from 'node:path'
+import type { Express } from 'express'
+import request from 'supertest'
+import type { DataSource } from 'typeorm'
+import { inject } from 'vitest'
+import { dropDatabase, ensureDatabase } from '../../../scripts/lib/postgres-cluster'
+import { createApp } from '../../../server/app'
+import { hashPassword } from '../../../server/auth/passwords'
+import { loadConfig, type AppConfig } from '../../../server/config'
+import { createDataSource } from '../../../server/db/data-source'
+import { DEMO_PASSWORD, DEMO_USERS, seedDemo } from '../../../server/demo/seed'
+import { OrganizationEntity, UserEntity } from '../../../server/entities'
+import type { Role } from '../../../shared/auth/roles'
+
+/** A database URL on the test server with another database name. */
+export function withDatabase(url: string, name: string): string {
+  const u = new URL(url)
+  u.pathname = `/${name}`
+  return u.toString()
+}
+
+export function testConfig(overrides: Record<string, string> = {}): AppConfig {
+  return loadConfig({
+    NODE_ENV: 'test',
+    JWT_SECRET: randomBytes(32).toString('hex'),
+    DATA_DIR: mkdtempSync(path.join(os.tmpdir(), 'stringline-data-')),
+    CLIENT_DIR: path.join(os.tmpdir(), 'stringline-no-client'),
+    LOGIN_LIMIT_PER_IP: '1000',
+    ...overrides,
+  })
+}
+
+export interface Harness {
+  app: Express
+  db: DataSource
+  config: AppConfig
+  close(): Promise<void>
+}
+
+/** A fresh database with every migration applied, and the app over it. */
+export async function startHarness(overrides: Record<string, string> = {}): Promise<Harness> {
+  const adminUrl = inject('adminDatabaseUrl')
+  const name = `sl_test_${randomBytes(6).toString('hex')}`
+  await ensureDatabase(adminUrl, name)
+  const db = createDataSource(withDatabase(adminUrl, name))
+  await db.initialize()
+  await db.runMigrations()
+  const config = testConfig(overrides)
+  return {
+    app: createApp({ db, config }),
+    db,
+    config,
+    async close() {
+      await db.destroy()
+      await dropDatabase(adminUrl, name)
+    },
+  }
+}
+
+export const demoEmail = (role: Role) => DEMO_USERS.find((u) => u.role === role)!.email
+
+/** The demo organisation plus a second, foreign one ("Quillfeather Energy") with a user per role. */
+export async function seedTwoOrganizations(h: Harness) {
+  await seedDemo(h.db, h.config.bcryptCost)
+  const foreign = await h.db.getRepository(OrganizationEntity).save({ slug: 'quillfeather-energy', name: 'Quillfeather Energy' })
+  const passwordHash = await hashPassword(DEMO_PASSWORD, h.config.bcryptCost)
+  const roles: Role[] = ['admin', 'designer', 'reviewer', 'coordinator']
+  const foreignUsers = await h.db.getRepository(UserEntity).save(
+    roles.map((role) => ({ organizationId: foreign.id, email: `${role}@quillfeather.example`, name: `Quill ${role}`, role, passwordHash })),
+  )
+  return { foreign, foreignUsers }
+}
+
+export async function login(app: Express, email: string, password = DEMO_PASSWORD) {
+  const res = await request(app).post('/api/auth/login').send({ email, password })
+  if (res.status !== 200) throw new Error(`login ${email} answered ${res.status}: ${JSON.stringify(res.body)}`)
+  return { token: res.body.token as string, user: res.body.user as { id: string; organizationId: string }, cookie: res.headers['set-cookie'] as unknown as string[] }
+}
+
+/** Signs in as each role of the demo organisation once. */
+export async function tokensByRole(app: Express): Promise<Record<Role, string>> {
+  const entries = await Promise.all(
+    (['admin', 'designer', 'reviewer', 'coordinator'] as const).map(async (role) => [role, (await login(app, demoEmail(role))).token] as const),
+  )
+  return Object.fromEntries(entries) as Record<Role, string>
+}
