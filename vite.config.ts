@@ -32,7 +32,11 @@ export default defineConfig({
         test: { name: 'server', include: ['tests/server/**/*.test.ts'], globalSetup: ['tests/setup/global-postgres.ts'] },
       },
       // Vue components, a spec beside each
-      { extends: true, test: { name: 'client', include: ['src/**/*.spec.ts'], environment: 'jsdom' } },
+      {
+        extends: true,
+        // element-plus style entries import .css files: let Vite (not Node) load the package
+        test: { name: 'client', include: ['src/**/*.spec.ts'], environment: 'jsdom', server: { deps: { inline: ['element-plus'] } } },
+      },
     ],
   },
 })

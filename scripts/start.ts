@@ -1,7 +1,7 @@
 import { build } from 'vite'
 import { DEMO_PASSWORD, DEMO_USERS } from '../server/demo/seed'
 import { ConfigError, loadConfig } from '../server/config'
-import { runServer } from '../server/server'
+import { runServer, type RunningServer } from '../server/server'
 import { ClusterError } from './lib/postgres-cluster'
 import { prepareLocalDatabase } from './lib/local-database'
 
@@ -13,13 +13,13 @@ async function main() {
   const config = loadConfig()
   const log = (line: string) => console.log(`[stringline] ${line}`)
   const database = await prepareLocalDatabase(config.dataDir, log)
-  let running: Awaited<ReturnType<typeof runServer>> | undefined
+  const app: { running?: RunningServer } = {}
   let stopping = false
   const shutdown = async () => {
     if (stopping) return
     stopping = true
     log('Stopping…')
-    await running?.close().catch(() => {})
+    await app.running?.close().catch(() => {})
     database.stop()
     log('Stopped.')
     process.exit(0)
@@ -31,7 +31,8 @@ async function main() {
     log('Building the client…')
     await build({ logLevel: 'warn' })
   }
-  running = await runServer(config, database.url, { demo: true })
+  const running = await runServer(config, database.url, { demo: true })
+  app.running = running
   log(`Open ${running.url} — demo sign-ins (local use only), password "${DEMO_PASSWORD}":`)
   for (const user of DEMO_USERS) log(`  ${user.role.padEnd(12)} ${user.email}`)
   log('Press Ctrl-C to stop.')

@@ -1,5 +1,9 @@
+import { createHash } from 'node:crypto'
+import { mkdirSync } from 'node:fs'
 import path from 'node:path'
-import { clusterAt, clusterUrl, ensureDatabase, ensurePostgresInstalled, initCluster, startCluster, stopCluster } from './postgres-cluster'
+import {
+  clusterAt, clusterUrl, ensureDatabase, ensurePostgresInstalled, initCluster, serverUserCanReach, startCluster, stopCluster,
+} from './postgres-cluster'
 
 export interface LocalDatabase {
   url: string
@@ -11,6 +15,18 @@ const DEFAULT_PG_PORT = 54329
 const DATABASE_NAME = 'stringline'
 
 /**
+ * The cluster lives in the data folder, unless (running as root) the `postgres` user cannot reach
+ * it, e.g. a checkout inside /root: then under /var/lib/stringline, one folder per checkout.
+ */
+function clusterHome(dataDir: string, log: (line: string) => void): string {
+  mkdirSync(dataDir, { recursive: true, mode: 0o755 })
+  if (serverUserCanReach(dataDir)) return path.join(dataDir, 'postgres')
+  const home = path.join('/var/lib/stringline', createHash('sha256').update(dataDir).digest('hex').slice(0, 12), 'postgres')
+  log(`The postgres user cannot reach ${dataDir}; keeping the cluster in ${home}`)
+  return home
+}
+
+/**
  * The database for `npm start` and `npm run dev`: DATABASE_URL when set, otherwise a private
  * cluster under the data folder on 127.0.0.1 (initialised on first use, kept between runs).
  */
@@ -20,7 +36,7 @@ export async function prepareLocalDatabase(dataDir: string, log: (line: string) 
     return { url: process.env.DATABASE_URL, stop: () => {} }
   }
   const bin = ensurePostgresInstalled(log)
-  const cluster = clusterAt(path.join(dataDir, 'postgres'), Number(process.env.PG_PORT ?? DEFAULT_PG_PORT))
+  const cluster = clusterAt(clusterHome(dataDir, log), Number(process.env.PG_PORT ?? DEFAULT_PG_PORT))
   initCluster(bin, cluster)
   startCluster(bin, cluster)
   log(`PostgreSQL running on 127.0.0.1:${cluster.port} (data in ${cluster.home})`)

@@ -70,6 +70,12 @@ function ownByServerUser(dir: string) {
   chownSync(dir, uid, gid)
 }
 
+/** Whether the server's user can enter `dir` (as root it runs as `postgres`, which may not). */
+export function serverUserCanReach(dir: string): boolean {
+  if (!isRoot()) return true
+  return spawnSync('runuser', ['-u', 'postgres', '--', 'test', '-x', dir]).status === 0
+}
+
 const dataDir = (c: Cluster) => path.join(c.home, 'data')
 
 /** Creates the cluster folder with initdb once; later calls keep the data. */

@@ -9,6 +9,8 @@ const personName = z.string().trim().min(1, 'Enter a name').max(120)
 export const PASSWORD_MIN_LENGTH = 12
 const password = z.string().min(PASSWORD_MIN_LENGTH, `Use at least ${PASSWORD_MIN_LENGTH} characters`).max(200)
 const isoDate = z.iso.date({ message: 'Use a date as YYYY-MM-DD' })
+/** Forms hold '' until a role is picked: say so rather than list the allowed values. */
+const role = z.enum(ROLES, { error: 'Choose a role' })
 
 export const loginBody = z.object({
   email: z.string().trim().min(1, 'Enter your e-mail address').max(254).transform((v) => v.toLowerCase()),
@@ -19,7 +21,7 @@ export type LoginBody = z.infer<typeof loginBody>
 export const createUserBody = z.object({
   email,
   name: personName,
-  role: z.enum(ROLES),
+  role,
   password,
   licenceNumber: z.string().trim().max(60).nullable().optional(),
   licenceRegion: z.string().trim().max(60).nullable().optional(),
@@ -30,7 +32,7 @@ export type CreateUserBody = z.infer<typeof createUserBody>
 export const updateUserBody = z
   .object({
     name: personName,
-    role: z.enum(ROLES),
+    role,
     active: z.boolean(),
     licenceNumber: z.string().trim().max(60).nullable(),
     licenceRegion: z.string().trim().max(60).nullable(),

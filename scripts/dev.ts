@@ -1,0 +1,34 @@
+import { spawn, type ChildProcess } from 'node:child_process'
+import { loadConfig } from '../server/config'
+import { prepareLocalDatabase } from './lib/local-database'
+
+/**
+ * `npm run dev`: the local cluster, the API with reload on change (tsx watch) on PORT, and the Vite
+ * dev server with hot reload that proxies /api to it.
+ */
+async function main() {
+  const config = loadConfig()
+  const log = (line: string) => console.log(`[stringline dev] ${line}`)
+  const database = await prepareLocalDatabase(config.dataDir, log)
+  const env = { ...process.env, DATABASE_URL: database.url, LOAD_DEMO_DATA: 'true', API_PORT: String(config.port) }
+  const children: ChildProcess[] = [
+    spawn('npx', ['tsx', 'watch', '--clear-screen=false', 'server/main.ts'], { stdio: 'inherit', env }),
+    spawn('npx', ['vite'], { stdio: 'inherit', env }),
+  ]
+  let stopping = false
+  const stop = () => {
+    if (stopping) return
+    stopping = true
+    for (const child of children) child.kill('SIGTERM')
+    database.stop()
+    process.exit(0)
+  }
+  for (const child of children) child.once('exit', stop)
+  process.once('SIGINT', stop)
+  process.once('SIGTERM', stop)
+}
+
+main().catch((err: unknown) => {
+  console.error(err)
+  process.exit(1)
+})

@@ -1,0 +1,9 @@
+import { api } from './client'
+import type { CreateUserBody, Page, UpdateUserBody, User, UserListQuery } from './types'
+
+export const usersApi = {
+  list: (query: UserListQuery) => api.get<Page<User>>('/users', { ...query }),
+  create: (body: CreateUserBody) => api.post<{ user: User }>('/users', body).then((answer) => answer.user),
+  update: (id: string, body: UpdateUserBody) =>
+    api.patch<{ user: User }>(`/users/${encodeURIComponent(id)}`, body).then((answer) => answer.user),
+}

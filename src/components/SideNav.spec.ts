@@ -1,0 +1,33 @@
+import { describe, expect, it } from 'vitest'
+import { mount } from '@vue/test-utils'
+import { createMemoryHistory, createRouter } from 'vue-router'
+import type { Role } from '@shared/auth/roles'
+import { routes } from '@/router/routes'
+import SideNav from './SideNav.vue'
+
+async function navFor(role: Role) {
+  const router = createRouter({ history: createMemoryHistory(), routes })
+  await router.push('/profile')
+  const wrapper = mount(SideNav, { props: { role }, global: { plugins: [router] } })
+  return wrapper.findAll('a').map((link) => ({ label: link.text(), href: link.attributes('href'), current: link.attributes('aria-current') }))
+}
+
+describe('side navigation', () => {
+  it('shows an administrator Home, Users and My profile', async () => {
+    expect((await navFor('admin')).map((item) => item.label)).toEqual(['Home', 'Users', 'My profile'])
+  })
+
+  it.each<Role>(['designer', 'reviewer', 'coordinator'])('hides Users from a %s', async (role) => {
+    const items = await navFor(role)
+    expect(items.map((item) => item.label)).toEqual(['Home', 'My profile'])
+    expect(items.some((item) => item.href === '/users')).toBe(false)
+  })
+
+  it('links each item to its page and marks the page being shown', async () => {
+    expect(await navFor('admin')).toEqual([
+      { label: 'Home', href: '/', current: undefined },
+      { label: 'Users', href: '/users', current: undefined },
+      { label: 'My profile', href: '/profile', current: 'page' },
+    ])
+  })
+})

@@ -1,0 +1,30 @@
+import type { Component } from 'vue'
+import { House, Postcard, UserFilled } from '@element-plus/icons-vue'
+import { ANY_ROLE, type Role } from '@shared/auth/roles'
+
+/** A screen inside the signed-in shell. The routes and the side navigation are both built from this list. */
+export interface ShellPage {
+  readonly name: string
+  readonly path: `/${string}`
+  /** Navigation label and document title. */
+  readonly title: string
+  readonly icon: Component
+  /** Roles that see the item and may open the page; the API checks again on every call. */
+  readonly roles: readonly Role[]
+  /** Each page is its own chunk, fetched when first opened. */
+  readonly component: () => Promise<Component>
+}
+
+/** Adding a screen is one line here (and its page file). Order is navigation order. */
+export const SHELL_PAGES = [
+  { name: 'home', path: '/', title: 'Home', icon: House, roles: ANY_ROLE, component: () => import('@/pages/HomePage.vue') },
+  { name: 'users', path: '/users', title: 'Users', icon: UserFilled, roles: ['admin'], component: () => import('@/pages/UsersPage.vue') },
+  { name: 'profile', path: '/profile', title: 'My profile', icon: Postcard, roles: ANY_ROLE, component: () => import('@/pages/ProfilePage.vue') },
+] as const satisfies readonly ShellPage[]
+
+export type ShellPageEntry = (typeof SHELL_PAGES)[number]
+
+/** The pages a role sees, in navigation order. */
+export function pagesFor(role: Role): ShellPageEntry[] {
+  return SHELL_PAGES.filter((page) => (page.roles as readonly Role[]).includes(role))
+}

@@ -1,0 +1,35 @@
+import { existsSync, mkdtempSync, readFileSync } from 'node:fs'
+import os from 'node:os'
+import path from 'node:path'
+import { describe, expect, it } from 'vitest'
+import { ConfigError, loadConfig } from '../../server/config'
+
+const tmp = () => mkdtempSync(path.join(os.tmpdir(), 'stringline-config-'))
+
+describe('configuration', () => {
+  it('refuses to start in production without JWT_SECRET', () => {
+    expect(() => loadConfig({ NODE_ENV: 'production', DATA_DIR: tmp() })).toThrow(ConfigError)
+  })
+
+  it('outside production generates a secret once and keeps it in the data folder', () => {
+    const dir = tmp()
+    const first = loadConfig({ DATA_DIR: dir })
+    expect(existsSync(path.join(dir, 'jwt-secret'))).toBe(true)
+    expect(first.jwtSecret.length).toBeGreaterThanOrEqual(32)
+    expect(loadConfig({ DATA_DIR: dir }).jwtSecret).toBe(first.jwtSecret)
+    expect(readFileSync(path.join(dir, 'jwt-secret'), 'utf8').trim()).toBe(first.jwtSecret)
+  })
+
+  it('refuses access tokens longer than 15 minutes, weak secrets and a bcrypt cost below 12', () => {
+    const secret = 'x'.repeat(40)
+    expect(() => loadConfig({ JWT_SECRET: secret, ACCESS_TOKEN_TTL_SECONDS: '3600' })).toThrow(/at most 900/)
+    expect(() => loadConfig({ JWT_SECRET: 'short' })).toThrow(/32 characters/)
+    expect(() => loadConfig({ JWT_SECRET: secret, BCRYPT_COST: '10' })).toThrow(/at least 12/)
+    expect(() => loadConfig({ JWT_SECRET: secret, PORT: 'eighty' })).toThrow(/PORT/)
+  })
+
+  it('defaults to the documented address and limits', () => {
+    const config = loadConfig({ JWT_SECRET: 'y'.repeat(40) })
+    expect(config).toMatchObject({ host: '127.0.0.1', port: 8080, bcryptCost: 12, accessTokenTtlSeconds: 600 })
+  })
+})
