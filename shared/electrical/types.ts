@@ -113,7 +113,7 @@ export interface ConductorSelection {
   size: ConductorSize
   /** Conductors in parallel per phase/pole (1 unless the current exceeds the largest size). */
   parallelSets: number
-  /** Corrected and adjusted ampacity of the chosen conductor [A]. */
+  /** Corrected and adjusted ampacity of one conductor of the chosen size [A] (per set). */
   ampacityA: number
   /** Every step: required ampacity both ways, each factor, the table value, 240.4(D), result. */
   steps: Derived[]
@@ -176,6 +176,11 @@ export interface EgcSizingInput {
   /** Circuit conductors were upsized for voltage drop: 250.122(B) proportional increase. */
   phaseSizeMinimum: ConductorSize
   phaseSizeChosen: ConductorSize
+  /**
+   * PV system circuit: 690.45 applies (no increase for voltage drop). Defaults to false, which
+   * applies the 250.122(B) increase: the larger, conservative result.
+   */
+  pvSystemCircuit?: boolean
 }
 
 export interface EgcSizing {

@@ -1,0 +1,2 @@
+/** The design document schema; the other schema modules are imported by path. */
+export * from './design'
