@@ -10,6 +10,9 @@ import { prepareLocalDatabase } from './lib/local-database'
  * client, and the app + API on http://127.0.0.1:8080. Ctrl-C stops the server and the cluster.
  */
 async function main() {
+  // when piped (e.g. into tee) Ctrl-C closes the pipe first: shutting down must not die on EPIPE
+  process.stdout.on('error', () => {})
+  process.stderr.on('error', () => {})
   const config = loadConfig()
   const log = (line: string) => console.log(`[stringline] ${line}`)
   const database = await prepareLocalDatabase(config.dataDir, log)
