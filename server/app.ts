@@ -9,7 +9,7 @@ import { pinoHttp } from 'pino-http'
 import type { DataSource } from 'typeorm'
 import { createAuthenticator } from './auth/guard'
 import type { AppConfig } from './config'
-import { apiNotFound, errorHandler, requireJsonBody } from './http/error-handler'
+import { apiNotFound, errorHandler } from './http/error-handler'
 import { mountRoutes } from './http/mount'
 import { buildRoutes } from './routes'
 import { createServices } from './services'
@@ -41,8 +41,9 @@ export function createApp({ db, config, logger = pino({ level: config.logLevel }
       autoLogging: { ignore: (req) => req.url === '/api/health' },
     }),
   )
-  app.use('/api', requireJsonBody, express.json({ limit: config.jsonBodyLimit }), cookieParser())
-  app.use(mountRoutes(buildRoutes(config), services, requireRoles))
+  app.use('/api', cookieParser())
+  // each route parses its own body: JSON, or multipart where it declares an upload
+  app.use(mountRoutes(buildRoutes(config), services, requireRoles, config))
   app.use('/api', apiNotFound)
 
   const indexHtml = path.join(config.clientDir, 'index.html')

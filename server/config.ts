@@ -20,6 +20,10 @@ export interface AppConfig {
   clientDir: string
   /** Largest JSON body accepted. */
   jsonBodyLimit: string
+  /** Largest uploaded file (datasheet PDF, CSV import) [bytes]. */
+  uploadMaxBytes: number
+  /** Most data rows one CSV import may hold. */
+  csvImportMaxRows: number
   logLevel: string
   /** Sign-in attempts per client address per 15 minutes. */
   loginLimitPerIp: number
@@ -86,6 +90,8 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): AppConfig {
     bcryptCost,
     clientDir: path.resolve(env.CLIENT_DIR ?? 'dist/client'),
     jsonBodyLimit: env.JSON_BODY_LIMIT ?? '1mb',
+    uploadMaxBytes: positiveInt(env, 'UPLOAD_MAX_BYTES', 20 * 1024 * 1024),
+    csvImportMaxRows: positiveInt(env, 'CSV_IMPORT_MAX_ROWS', 2000),
     logLevel: env.LOG_LEVEL ?? (nodeEnv === 'test' ? 'silent' : 'info'),
     loginLimitPerIp: positiveInt(env, 'LOGIN_LIMIT_PER_IP', 30),
     loginLimitPerAccount: positiveInt(env, 'LOGIN_LIMIT_PER_ACCOUNT', 5),

@@ -1,7 +1,6 @@
 import type { AuthUser } from './auth-user'
 
 declare global {
-  // eslint-disable-next-line @typescript-eslint/no-namespace
   namespace Express {
     // passport types req.user as Express.User; ours is the AuthUser loaded per request
     // eslint-disable-next-line @typescript-eslint/no-empty-object-type

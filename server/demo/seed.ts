@@ -2,6 +2,7 @@ import type { DataSource } from 'typeorm'
 import type { Role } from '../../shared/auth/roles'
 import { hashPassword } from '../auth/passwords'
 import { OrganizationEntity, UserEntity } from '../entities'
+import { loadDemoWorkspace } from './workspace'
 
 /**
  * Demo data: an invented installer in an invented town. The passwords are for local use only and
@@ -29,11 +30,16 @@ export const DEMO_USERS: DemoUser[] = [
   { email: 'coordinator@larkspur-solar.example', name: 'Priya Venkataraman', role: 'coordinator' },
 ]
 
-/** Loads the demo organisation and users once; later runs find them and change nothing. */
+/**
+ * Loads the demo organisation, its users and its workspace (jurisdiction, equipment library,
+ * projects with designs) once; later runs find them and change nothing. A database seeded before
+ * the workspace existed gets the workspace alone.
+ */
 export async function seedDemo(db: DataSource, bcryptCost: number): Promise<'created' | 'present'> {
   return db.transaction(async (manager) => {
     const orgs = manager.getRepository(OrganizationEntity)
-    if (await orgs.existsBy({ slug: DEMO_ORGANIZATION.slug })) return 'present'
+    const existing = await orgs.findOneBy({ slug: DEMO_ORGANIZATION.slug })
+    if (existing) return loadDemoWorkspace(manager, existing.id)
     const org = await orgs.save(DEMO_ORGANIZATION)
     const passwordHash = await hashPassword(DEMO_PASSWORD, bcryptCost)
     await manager.getRepository(UserEntity).save(
@@ -49,6 +55,7 @@ export async function seedDemo(db: DataSource, bcryptCost: number): Promise<'cre
         licenceExpiry: u.licence?.expiry ?? null,
       })),
     )
+    await loadDemoWorkspace(manager, org.id)
     return 'created'
   })
 }

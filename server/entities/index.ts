@@ -1,12 +1,42 @@
 import { AuditEventEntity } from './audit-event'
+import { DesignEntity } from './design'
+import { EquipmentItemEntity } from './equipment-item'
+import { JurisdictionProfileEntity } from './jurisdiction-profile'
 import { OrganizationEntity } from './organization'
+import { ProjectEntity } from './project'
 import { RefreshTokenEntity } from './refresh-token'
+import { StoredFileEntity } from './stored-file'
 import { UserEntity } from './user'
 
-export { AuditEventEntity, OrganizationEntity, RefreshTokenEntity, UserEntity }
+export {
+  AuditEventEntity,
+  DesignEntity,
+  EquipmentItemEntity,
+  JurisdictionProfileEntity,
+  OrganizationEntity,
+  ProjectEntity,
+  RefreshTokenEntity,
+  StoredFileEntity,
+  UserEntity,
+}
 export type { AuditEvent } from './audit-event'
+export type { Design } from './design'
+export type { EquipmentItem } from './equipment-item'
+export type { JurisdictionProfile } from './jurisdiction-profile'
 export type { Organization } from './organization'
+export type { Project } from './project'
 export type { RefreshToken } from './refresh-token'
+export type { StoredFile } from './stored-file'
 export type { User } from './user'
 
-export const ENTITIES = [OrganizationEntity, UserEntity, RefreshTokenEntity, AuditEventEntity]
+export const ENTITIES = [
+  OrganizationEntity,
+  UserEntity,
+  RefreshTokenEntity,
+  AuditEventEntity,
+  JurisdictionProfileEntity,
+  ProjectEntity,
+  StoredFileEntity,
+  EquipmentItemEntity,
+  DesignEntity,
+]

@@ -26,7 +26,7 @@ function send(res: Parameters<ErrorRequestHandler>[2], status: number, body: Err
 export function errorHandler(logger: Logger): ErrorRequestHandler {
   return (err, req, res, _next) => {
     if (err instanceof HttpError) {
-      const body: ErrorBody = { error: { code: err.code, message: err.message } }
+      const body: ErrorBody = { ...err.extra, error: { code: err.code, message: err.message } }
       if (err.fields?.length) body.error.fields = err.fields
       return send(res, err.status, body)
     }
@@ -51,11 +51,22 @@ export function errorHandler(logger: Logger): ErrorRequestHandler {
   }
 }
 
+const hasBody = (req: Parameters<RequestHandler>[0]) =>
+  ['POST', 'PUT', 'PATCH'].includes(req.method) &&
+  (Number(req.headers['content-length'] ?? 0) > 0 || req.headers['transfer-encoding'] !== undefined)
+
 /** Bodies must be JSON: anything else with content answers 415 before parsing. */
 export const requireJsonBody: RequestHandler = (req, _res, next) => {
-  const hasBody = Number(req.headers['content-length'] ?? 0) > 0 || req.headers['transfer-encoding'] !== undefined
-  if (hasBody && ['POST', 'PUT', 'PATCH'].includes(req.method) && !req.is('application/json')) {
+  if (hasBody(req) && !req.is('application/json')) {
     return next(new HttpError(415, 'unsupported_media_type', 'Send the request body as application/json'))
+  }
+  next()
+}
+
+/** Upload routes take multipart/form-data only; anything else answers 415 before reading it. */
+export const requireMultipartBody: RequestHandler = (req, _res, next) => {
+  if (!hasBody(req) || !req.is('multipart/form-data')) {
+    return next(new HttpError(415, 'unsupported_media_type', 'Send the file as multipart/form-data'))
   }
   next()
 }

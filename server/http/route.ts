@@ -1,5 +1,5 @@
 import type { Request, RequestHandler, Response } from 'express'
-import type { z } from 'zod'
+import { z } from 'zod'
 import type { Role } from '../../shared/auth/roles'
 import type { AuthUser } from '../auth/auth-user'
 import type { Services } from '../services'
@@ -14,6 +14,8 @@ export interface RouteContext<B, Q, P> {
   query: Q
   params: P
   services: Services
+  /** The uploaded file on an upload route (absent when the form had none). */
+  file?: Express.Multer.File
   req: Request
   res: Response
 }
@@ -26,6 +28,23 @@ export class Reply {
   ) {}
 }
 
+/** A file sent as the response body, with the name the browser saves it under. */
+export class Download {
+  constructor(
+    readonly body: Buffer | string,
+    readonly mediaType: string,
+    readonly fileName: string,
+  ) {}
+}
+
+/** A route that takes one file as multipart/form-data instead of a JSON body. */
+export interface UploadSpec {
+  /** Form field that carries the file. */
+  field: string
+  /** One line for the API documentation, e.g. "PDF datasheet". */
+  description: string
+}
+
 export interface RouteDef<B = unknown, Q = unknown, P = unknown> {
   method: 'get' | 'post' | 'put' | 'patch' | 'delete'
   /** Express path under the app root, e.g. `/api/users/:id`. */
@@ -34,12 +53,17 @@ export interface RouteDef<B = unknown, Q = unknown, P = unknown> {
   access: Access
   /** One line for the API documentation. */
   summary: string
+  /** JSON body; on an upload route, the text fields of the form. */
   body?: z.ZodType<B>
   query?: z.ZodType<Q>
   params?: z.ZodType<P>
+  /** Schema of the JSON success body: documented in OpenAPI and checked on every answer under test. */
+  response?: z.ZodType
+  /** Set when the route takes a file (multipart/form-data); the file is `ctx.file`. */
+  upload?: UploadSpec
   /** Extra middleware run before validation, e.g. rate limits. */
   before?: RequestHandler[]
-  /** Returns the JSON body (200), a `Reply`, or undefined (204). */
+  /** Returns the JSON body (200), a `Reply`, a `Download`, or undefined (204). */
   handler: (ctx: RouteContext<B, Q, P>) => unknown
 }
 
@@ -51,3 +75,7 @@ export function route<B = undefined, Q = undefined, P = undefined>(def: RouteDef
 /** A route of any shape, for tables of routes. */
 // eslint-disable-next-line @typescript-eslint/no-explicit-any
 export type AnyRoute = RouteDef<any, any, any>
+
+/** The answer of a paged list: `{ items, total, page, pageSize }`. */
+export const pageResponse = (item: z.ZodType) =>
+  z.object({ items: z.array(item), total: z.number().int(), page: z.number().int(), pageSize: z.number().int() })

@@ -1,4 +1,5 @@
 import { Foundation1764633600000 } from './1764633600000-foundation'
+import { DesignWorkspace1764720000000 } from './1764720000000-design-workspace'
 
 /** Every migration in order. A new migration is added here as well as in its own file. */
-export const MIGRATIONS = [Foundation1764633600000]
+export const MIGRATIONS = [Foundation1764633600000, DesignWorkspace1764720000000]

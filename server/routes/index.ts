@@ -2,10 +2,28 @@ import type { AppConfig } from '../config'
 import type { AnyRoute } from '../http/route'
 import { auditRoutes } from './audit'
 import { authRoutes } from './auth'
+import { calculationRoutes } from './calculations'
+import { designRoutes } from './designs'
+import { docsRoutes } from './docs'
+import { equipmentRoutes } from './equipment'
 import { healthRoutes } from './health'
+import { jurisdictionRoutes } from './jurisdictions'
+import { projectRoutes } from './projects'
 import { userRoutes } from './users'
 
 /** The route table: every API route, each with its access declaration. */
 export function buildRoutes(config: AppConfig): AnyRoute[] {
-  return [...healthRoutes, ...authRoutes(config), ...userRoutes, ...auditRoutes]
+  const table: AnyRoute[] = [
+    ...healthRoutes,
+    ...authRoutes(config),
+    ...userRoutes,
+    ...auditRoutes,
+    ...calculationRoutes,
+    ...projectRoutes,
+    ...jurisdictionRoutes,
+    ...equipmentRoutes,
+    ...designRoutes,
+  ]
+  table.push(...docsRoutes(table))
+  return table
 }

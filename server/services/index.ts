@@ -1,8 +1,14 @@
 import type { DataSource } from 'typeorm'
 import type { AppConfig } from '../config'
+import { createFileStorage } from '../storage'
 import { AuditService } from './audit-service'
 import { AuthService } from './auth-service'
+import { DesignService } from './design-service'
+import { EquipmentService } from './equipment-service'
 import { HealthService } from './health-service'
+import { JurisdictionService } from './jurisdiction-service'
+import { ProjectService } from './project-service'
+import { UploadService } from './upload-service'
 import { UserService } from './user-service'
 
 /** The domain services of one app instance, built once over its data source. */
@@ -11,10 +17,28 @@ export interface Services {
   auth: AuthService
   health: HealthService
   users: UserService
+  jurisdictions: JurisdictionService
+  projects: ProjectService
+  designs: DesignService
+  uploads: UploadService
+  equipment: EquipmentService
 }
 
 export function createServices(db: DataSource, config: AppConfig): Services {
   const audit = new AuditService(db)
   const users = new UserService(db, audit, config.bcryptCost)
-  return { audit, users, auth: new AuthService(db, config, users, audit), health: new HealthService(db) }
+  const jurisdictions = new JurisdictionService(db, audit)
+  const projects = new ProjectService(db, audit, jurisdictions)
+  const uploads = new UploadService(db, createFileStorage(config))
+  return {
+    audit,
+    users,
+    auth: new AuthService(db, config, users, audit),
+    health: new HealthService(db),
+    jurisdictions,
+    projects,
+    designs: new DesignService(db, audit, projects),
+    uploads,
+    equipment: new EquipmentService(db, audit, uploads, config),
+  }
 }
