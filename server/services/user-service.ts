@@ -5,8 +5,9 @@ import type { Page } from '../../shared/schemas/paging'
 import type { AuthUser } from '../auth/auth-user'
 import { hashPassword } from '../auth/passwords'
 import { OrganizationEntity, RefreshTokenEntity, UserEntity, type User } from '../entities'
-import { conflict, notFound } from '../http/errors'
+import { conflict } from '../http/errors'
 import type { AuditService } from './audit-service'
+import { containsPattern, findOwned, pageOf } from './rows'
 
 const SORT_COLUMNS = { name: 'u.name', email: 'u.email', role: 'u.role', createdAt: 'u.created_at' } as const
 type SortName = keyof typeof SORT_COLUMNS
@@ -17,8 +18,6 @@ export interface UserListQuery {
   q?: string
   sort?: SortName | `-${SortName}`
 }
-
-const UUID_PATTERN = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i
 
 /** Users of one organisation: listing, creation, role and licence changes, deactivation. */
 export class UserService {
@@ -47,10 +46,7 @@ export class UserService {
 
   /** A user of the caller's organisation; any other id (foreign, unknown, malformed) is 404. */
   async getInOrganization(organizationId: string, id: string): Promise<User> {
-    if (!UUID_PATTERN.test(id)) throw notFound('User')
-    const user = await this.db.getRepository(UserEntity).findOneBy({ id, organizationId })
-    if (!user) throw notFound('User')
-    return user
+    return findOwned(this.db.manager, UserEntity, organizationId, id, 'User')
   }
 
   async list(organizationId: string, query: UserListQuery): Promise<Page<UserDto>> {
@@ -59,15 +55,10 @@ export class UserService {
       .createQueryBuilder('u')
       .where('u.organization_id = :organizationId', { organizationId })
     if (query.q) {
-      const pattern = `%${query.q.replace(/[\\%_]/g, (c) => `\\${c}`)}%`
+      const pattern = containsPattern(query.q)
       qb.andWhere(new Brackets((w) => w.where('u.name ILIKE :pattern', { pattern }).orWhere('u.email ILIKE :pattern', { pattern })))
     }
-    const sort = query.sort ?? 'name'
-    const descending = sort.startsWith('-')
-    const column = SORT_COLUMNS[(descending ? sort.slice(1) : sort) as SortName]
-    qb.orderBy(column, descending ? 'DESC' : 'ASC').addOrderBy('u.id', 'ASC')
-    qb.skip((query.page - 1) * query.pageSize).take(query.pageSize)
-    const [users, total] = await qb.getManyAndCount()
+    const { rows: users, total } = await pageOf(qb, query, SORT_COLUMNS, 'name')
     const items = await Promise.all(users.map((u) => this.toDto(u)))
     return { items, total, page: query.page, pageSize: query.pageSize }
   }
