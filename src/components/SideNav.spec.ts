@@ -13,19 +13,22 @@ async function navFor(role: Role) {
 }
 
 describe('side navigation', () => {
-  it('shows an administrator Home, Users and My profile', async () => {
-    expect((await navFor('admin')).map((item) => item.label)).toEqual(['Home', 'Users', 'My profile'])
+  it('shows an administrator every page, Users among them', async () => {
+    expect((await navFor('admin')).map((item) => item.label)).toEqual(['Home', 'Projects', 'Equipment library', 'Jurisdictions', 'Users', 'My profile'])
   })
 
   it.each<Role>(['designer', 'reviewer', 'coordinator'])('hides Users from a %s', async (role) => {
     const items = await navFor(role)
-    expect(items.map((item) => item.label)).toEqual(['Home', 'My profile'])
+    expect(items.map((item) => item.label)).toEqual(['Home', 'Projects', 'Equipment library', 'Jurisdictions', 'My profile'])
     expect(items.some((item) => item.href === '/users')).toBe(false)
   })
 
   it('links each item to its page and marks the page being shown', async () => {
     expect(await navFor('admin')).toEqual([
       { label: 'Home', href: '/', current: undefined },
+      { label: 'Projects', href: '/projects', current: undefined },
+      { label: 'Equipment library', href: '/equipment', current: undefined },
+      { label: 'Jurisdictions', href: '/jurisdictions', current: undefined },
       { label: 'Users', href: '/users', current: undefined },
       { label: 'My profile', href: '/profile', current: 'page' },
     ])

@@ -44,7 +44,7 @@ describe('home page', () => {
 
   it('offers shortcuts only to the pages the role may open', () => {
     const shortcuts = (role: Role) => homeOf(aMember(role)).findAll('.home__shortcut').map((link) => link.text())
-    expect(shortcuts('admin')).toEqual(['Users', 'My profile'])
-    expect(shortcuts('coordinator')).toEqual(['My profile'])
+    expect(shortcuts('admin')).toEqual(['Projects', 'Equipment library', 'Jurisdictions', 'Users', 'My profile'])
+    expect(shortcuts('coordinator')).toEqual(['Projects', 'Equipment library', 'Jurisdictions', 'My profile'])
   })
 })

@@ -1,6 +1,6 @@
 import type { RouteRecordInfo, RouteRecordRaw } from 'vue-router'
 import { ANY_ROLE, type Role } from '@shared/auth/roles'
-import { SHELL_PAGES } from './shellPages'
+import { PROJECT_PAGES, SHELL_PAGES } from './shellPages'
 
 /** Who may open a route: anyone, or signed-in members with one of the roles. */
 export type RouteAccess = 'public' | readonly Role[]
@@ -10,8 +10,14 @@ type ShellRoutes = {
   [Page in (typeof SHELL_PAGES)[number] as Page['name']]: RouteRecordInfo<Page['name'], Page['path'], NoParams, NoParams>
 }
 
+type ProjectParams = { projectId: string | number }
+type ProjectParamsRaw = { projectId: string }
+type ProjectRoutes = {
+  [Page in (typeof PROJECT_PAGES)[number] as Page['name']]: RouteRecordInfo<Page['name'], Page['path'], ProjectParams, ProjectParamsRaw>
+}
+
 /** Every named route; `router.push({ name })` and `<RouterLink :to>` reject a name not listed here. */
-export interface AppRouteMap extends ShellRoutes {
+export interface AppRouteMap extends ShellRoutes, ProjectRoutes {
   'sign-in': RouteRecordInfo<'sign-in', '/sign-in', NoParams, NoParams>
   'not-found': RouteRecordInfo<'not-found', '/:pathMatch(.*)*', { pathMatch: string | string[] }, { pathMatch: string[] }>
 }
@@ -38,7 +44,7 @@ export const routes: RouteRecordRaw[] = [
     path: '/',
     component: () => import('@/components/AppShell.vue'),
     meta: { access: ANY_ROLE, title: 'Stringline' },
-    children: SHELL_PAGES.map((page) => ({
+    children: [...SHELL_PAGES, ...PROJECT_PAGES].map((page) => ({
       path: page.path,
       name: page.name,
       component: page.component,

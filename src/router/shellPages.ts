@@ -1,5 +1,5 @@
 import type { Component } from 'vue'
-import { House, Postcard, UserFilled } from '@element-plus/icons-vue'
+import { Box, Files, House, Location, Postcard, UserFilled } from '@element-plus/icons-vue'
 import { ANY_ROLE, type Role } from '@shared/auth/roles'
 
 /** A screen inside the signed-in shell. The routes and the side navigation are both built from this list. */
@@ -18,9 +18,18 @@ export interface ShellPage {
 /** Adding a screen is one line here (and its page file). Order is navigation order. */
 export const SHELL_PAGES = [
   { name: 'home', path: '/', title: 'Home', icon: House, roles: ANY_ROLE, component: () => import('@/pages/HomePage.vue') },
+  { name: 'projects', path: '/projects', title: 'Projects', icon: Files, roles: ANY_ROLE, component: () => import('@/pages/ProjectsPage.vue') },
+  { name: 'equipment', path: '/equipment', title: 'Equipment library', icon: Box, roles: ANY_ROLE, component: () => import('@/pages/EquipmentPage.vue') },
+  { name: 'jurisdictions', path: '/jurisdictions', title: 'Jurisdictions', icon: Location, roles: ANY_ROLE, component: () => import('@/pages/JurisdictionsPage.vue') },
   { name: 'users', path: '/users', title: 'Users', icon: UserFilled, roles: ['admin'], component: () => import('@/pages/UsersPage.vue') },
   { name: 'profile', path: '/profile', title: 'My profile', icon: Postcard, roles: ANY_ROLE, component: () => import('@/pages/ProfilePage.vue') },
 ] as const satisfies readonly ShellPage[]
+
+/** Screens inside the shell reached from another page rather than the navigation; each takes a project id. */
+export const PROJECT_PAGES = [
+  { name: 'project', path: '/projects/:projectId', title: 'Project', roles: ANY_ROLE, component: () => import('@/pages/ProjectPage.vue') },
+  { name: 'project-design', path: '/projects/:projectId/design', title: 'Design', roles: ANY_ROLE, component: () => import('@/pages/DesignEditorPage.vue') },
+] as const satisfies readonly Omit<ShellPage, 'icon'>[]
 
 export type ShellPageEntry = (typeof SHELL_PAGES)[number]
 
