@@ -1,11 +1,20 @@
 import { z } from 'zod'
-import { createUserBody, updateUserBody, USER_SORTS } from '../../shared/schemas/auth'
+import { ANY_ROLE } from '../../shared/auth/roles'
+import { createUserBody, memberDto, updateUserBody, USER_SORTS } from '../../shared/schemas/auth'
 import { pageQuery } from '../../shared/schemas/paging'
 import { Reply, route } from '../http/route'
 
 const idParams = z.object({ id: z.string() })
 
 export const userRoutes = [
+  route({
+    method: 'get',
+    path: '/api/members',
+    access: ANY_ROLE,
+    summary: 'Active members of the organisation (id, name, role), for assignments and filters',
+    response: z.object({ items: z.array(memberDto) }),
+    handler: async ({ user, services }) => ({ items: await services.users.members(user!.organizationId) }),
+  }),
   route({
     method: 'get',
     path: '/api/users',

@@ -1,6 +1,6 @@
 import { randomUUID } from 'node:crypto'
 import { Brackets, type DataSource, type EntityManager } from 'typeorm'
-import type { CreateUserBody, UpdateUserBody, UserDto } from '../../shared/schemas/auth'
+import type { CreateUserBody, MemberDto, UpdateUserBody, UserDto } from '../../shared/schemas/auth'
 import type { Page } from '../../shared/schemas/paging'
 import type { AuthUser } from '../auth/auth-user'
 import { hashPassword } from '../auth/passwords'
@@ -61,6 +61,16 @@ export class UserService {
     const { rows: users, total } = await pageOf(qb, query, SORT_COLUMNS, 'name')
     const items = await Promise.all(users.map((u) => this.toDto(u)))
     return { items, total, page: query.page, pageSize: query.pageSize }
+  }
+
+  /** Active members of the organisation by name: id, name and role only. */
+  async members(organizationId: string): Promise<MemberDto[]> {
+    const users = await this.db.getRepository(UserEntity).find({
+      where: { organizationId, active: true },
+      order: { name: 'ASC', id: 'ASC' },
+      select: { id: true, name: true, role: true },
+    })
+    return users.map(({ id, name, role }) => ({ id, name, role }))
   }
 
   async create(actor: AuthUser, body: CreateUserBody): Promise<UserDto> {

@@ -58,3 +58,11 @@ export interface UserDto {
   licenceExpiry: string | null
   createdAt: string
 }
+
+/** Who is in the organisation, for assignments and filters: visible to every role. */
+export const memberDto = z.object({
+  id: z.string(),
+  name: z.string(),
+  role: z.enum(ROLES),
+})
+export type MemberDto = z.infer<typeof memberDto>

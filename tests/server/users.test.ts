@@ -101,6 +101,16 @@ describe('user administration', () => {
     expect(res.status).toBe(400)
   })
 
+  it('every role reads the member directory: active members of its own organisation, id, name and role only', async () => {
+    for (const role of ['designer', 'reviewer', 'coordinator', 'admin'] as const) {
+      const res = await request(h.app).get('/api/members').set(as(role))
+      expect(res.status, role).toBe(200)
+      expect(res.body.items.map((m: { role: string }) => m.role)).toEqual(expect.arrayContaining(['admin', 'designer', 'reviewer', 'coordinator']))
+      for (const member of res.body.items) expect(Object.keys(member).sort()).toEqual(['id', 'name', 'role'])
+      expect(JSON.stringify(res.body)).not.toMatch(/Quill|Temporary Person/)
+    }
+  })
+
   it('admins read the audit log of their organisation', async () => {
     const res = await request(h.app).get('/api/audit-events').set(as('admin'))
     expect(res.status).toBe(200)
