@@ -65,6 +65,8 @@ export const codeBasisSchema = z.object({
   /** Cell temperature rise over ambient for the hot-day Vmp check [°C]. */
   cellTemperatureRiseC: z.number().min(0).max(60).default(25),
   voltageDropLimits: voltageDropLimitsSchema.prefault({}),
+  /** Why edition or design temperatures depart from the jurisdiction profile, for the reviewer. */
+  overrideReason: z.string().trim().max(500).nullable().default(null),
 })
 
 // ---------------------------------------------------------------------------------------------

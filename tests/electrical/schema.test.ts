@@ -26,6 +26,17 @@ describe('design document schema', () => {
     expect(parsed.value.topology.runs[2]?.racewayId).toBeNull()
   })
 
+  it('keeps the reason for departing from the jurisdiction profile, and names it when too long', () => {
+    const parsed = parseDesign(copy('gridTied'))
+    expect(parsed.ok && parsed.value.codeBasis.overrideReason).toBeNull()
+    const doc = copy('gridTied')
+    doc.codeBasis.overrideReason = '  AHJ accepts the 2023 edition for this permit  '
+    const withReason = parseDesign(doc)
+    expect(withReason.ok && withReason.value.codeBasis.overrideReason).toBe('AHJ accepts the 2023 edition for this permit')
+    doc.codeBasis.overrideReason = 'x'.repeat(501)
+    expect(fieldsOf(doc)).toEqual(['codeBasis.overrideReason'])
+  })
+
   it('names the field of a wrong type or a value out of range', () => {
     const doc = copy('gridTied') as unknown as { equipment: { modules: Array<Record<string, unknown>> }; codeBasis: Record<string, unknown> }
     doc.equipment.modules[0]!.pmaxW = '400'
