@@ -69,6 +69,8 @@ export interface RunResult {
   insulation: Run['insulation']
   method: Run['method']
   racewayId: string | null
+  /** Circuit (current-carrying and neutral) conductors per set: as given, or the system's usual count. */
+  circuitConductors: number | null
   maxCurrentA: number | null
   /** Circuit voltage the drop is taken on [V]. */
   voltageV: number | null
@@ -517,7 +519,7 @@ class DesignEvaluator {
       const key = `run.${run.id}`
       const result: RunResult = {
         id: run.id, kind: run.kind, from: run.from, to: run.to, lengthFt: run.lengthFt, material: run.material,
-        insulation: run.insulation, method: run.method, racewayId: run.racewayId, maxCurrentA: null, voltageV: null,
+        insulation: run.insulation, method: run.method, racewayId: run.racewayId, circuitConductors: null, maxCurrentA: null, voltageV: null,
         sizeForAmpacity: null, size: null, parallelSets: 1, ampacityA: null, ocpdA: null, egcSize: null,
         conduitTradeSize: null, conduitFillPercent: null, voltageDropV: null, voltageDropPercent: null, status: 'fail',
       }
@@ -529,6 +531,7 @@ class DesignEvaluator {
         result.status = worstStatus(items.map((d) => d.status))
         this.sections.push(section(key, `Circuit ${run.id}: ${run.from} → ${run.to}`, 'circuit', items))
       }
+      result.circuitConductors = run.circuitConductors ?? defaultCircuitConductors(circuit.system)
       result.maxCurrentA = circuit.maxCurrent.value
       result.voltageV = circuit.voltageV
       if (circuit.maxVoltageV > TABLE_310_16_MAX_V) {
@@ -618,10 +621,9 @@ class DesignEvaluator {
       const conductors: ConduitConductor[] = members.flatMap((i) => {
         const run = this.doc.topology.runs[i]!
         const r = this.runResults[i]!
-        const circuit = this.circuits.get(i)!
         const setsHere = r.parallelSets / raceways
         return [
-          { size: r.size!, insulation: run.insulation, count: (run.circuitConductors ?? defaultCircuitConductors(circuit.system)) * setsHere },
+          { size: r.size!, insulation: run.insulation, count: r.circuitConductors! * setsHere },
           { size: r.egcSize!, insulation: run.insulation, count: setsHere },
         ]
       })

@@ -130,7 +130,7 @@ const range = (values: number[], decimals: number, unit: string) => {
 /** What a run's schedule line says, without its length, current and drop (which may vary in a group). */
 function runSignature(run: Run, result: RunResult | undefined): string {
   if (!result) return `${run.kind}|uncomputed|${run.id}`
-  return [run.kind, result.size, result.parallelSets, run.material, run.insulation, result.egcSize, run.method, result.conduitTradeSize, result.ocpdA, run.circuitConductors].join('|')
+  return [run.kind, result.size, result.parallelSets, run.material, run.insulation, result.egcSize, run.method, result.conduitTradeSize, result.ocpdA, result.circuitConductors].join('|')
 }
 
 function scheduleLine(tag: string, runs: RunResult[], docRuns: Map<string, Run>): ScheduleLine {
@@ -138,8 +138,7 @@ function scheduleLine(tag: string, runs: RunResult[], docRuns: Map<string, Run>)
   const run = docRuns.get(first.id)!
   const sized = first.size !== null
   const sets = first.parallelSets > 1 ? `${first.parallelSets} sets of ` : ''
-  // the count is printed only where the document states it: the engine's default is not in its results
-  const count = run.circuitConductors !== null ? `${run.circuitConductors} ` : ''
+  const count = first.circuitConductors !== null ? `(${first.circuitConductors}) ` : ''
   const conductors = sized ? `${sets}${count}${awg(first.size!)} ${run.material} ${run.insulation}` : 'not computed, see issues'
   const raceway = run.method === 'FREE_AIR' ? 'free air' : run.method === 'CABLE' ? 'cable' : first.conduitTradeSize !== null
     ? `${first.conduitTradeSize} in ${run.method}, ${range(runs.map((r) => r.conduitFillPercent ?? 0), 1, '%')} fill`
