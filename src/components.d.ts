@@ -65,6 +65,7 @@ declare module 'vue' {
     StringingPicker: typeof import('./components/design/StringingPicker.vue')['default']
     StringsSection: typeof import('./components/design/StringsSection.vue')['default']
     StringVoltageChart: typeof import('./components/design/charts/StringVoltageChart.vue')['default']
+    TablePager: typeof import('./components/TablePager.vue')['default']
     UserCreateDialog: typeof import('./components/UserCreateDialog.vue')['default']
     UserEditDialog: typeof import('./components/UserEditDialog.vue')['default']
     VoltageDropChart: typeof import('./components/design/charts/VoltageDropChart.vue')['default']
