@@ -1,14 +1,14 @@
 import { onBeforeUnmount, onMounted, type Ref } from 'vue'
-import { onBeforeRouteLeave } from 'vue-router'
+import { onBeforeRouteLeave, onBeforeRouteUpdate } from 'vue-router'
 import { ElMessageBox } from 'element-plus'
 import 'element-plus/es/components/message-box/style/css'
 
 /**
- * Asks before unsaved work is lost: leaving the page inside the app asks in a dialog; closing or
- * reloading the tab gets the browser's own question.
+ * Asks before unsaved work is lost: leaving the page inside the app, or moving it to another
+ * record, asks in a dialog; closing or reloading the tab gets the browser's own question.
  */
 export function useUnsavedGuard(dirty: Readonly<Ref<boolean>>, what = 'this design'): void {
-  onBeforeRouteLeave(async () => {
+  const confirmLeave = async () => {
     if (!dirty.value) return true
     try {
       await ElMessageBox.confirm(`You have unsaved changes to ${what}. Leave and lose them?`, 'Unsaved changes', {
@@ -20,7 +20,10 @@ export function useUnsavedGuard(dirty: Readonly<Ref<boolean>>, what = 'this desi
     } catch {
       return false
     }
-  })
+  }
+  onBeforeRouteLeave(confirmLeave)
+  // the same page with another id (one project's design to another's) reuses the component
+  onBeforeRouteUpdate((to, from) => (to.path === from.path ? true : confirmLeave()))
 
   const onBeforeUnload = (event: BeforeUnloadEvent) => {
     if (!dirty.value) return
