@@ -110,6 +110,31 @@ export const pvInputSchema = z.object({
   maxShortCircuitCurrentPerMpptA: positive,
 })
 
+/** A field of an equipment record that cannot be, with the reason. */
+export interface SpecProblem<F extends string> {
+  field: F
+  message: string
+}
+
+type PvInputSpec = z.infer<typeof pvInputSchema>
+
+/** An inverter PV input whose voltage window cannot exist. Shared by designs and the equipment library. */
+export function impossiblePvInput(pv: PvInputSpec): SpecProblem<keyof PvInputSpec>[] {
+  const problems: SpecProblem<keyof PvInputSpec>[] = []
+  if (pv.mpptMinV >= pv.mpptMaxV) problems.push({ field: 'mpptMinV', message: `MPPT minimum ${pv.mpptMinV} V must be below the MPPT maximum ${pv.mpptMaxV} V` })
+  if (pv.mpptMaxV > pv.maxDcVoltageV) problems.push({ field: 'mpptMaxV', message: `MPPT maximum ${pv.mpptMaxV} V exceeds the maximum DC voltage ${pv.maxDcVoltageV} V` })
+  if (pv.startVoltageV > pv.maxDcVoltageV) problems.push({ field: 'startVoltageV', message: `start voltage ${pv.startVoltageV} V exceeds the maximum DC voltage ${pv.maxDcVoltageV} V` })
+  return problems
+}
+
+/** Module data whose maximum-power point lies outside the I–V curve. Shared by designs and the library. */
+export function impossibleModuleCurve(m: { vmpV: number; vocV: number; impA: number; iscA: number }): SpecProblem<'vmpV' | 'impA'>[] {
+  const problems: SpecProblem<'vmpV' | 'impA'>[] = []
+  if (m.vmpV >= m.vocV) problems.push({ field: 'vmpV', message: `Vmp ${m.vmpV} V must be below Voc ${m.vocV} V` })
+  if (m.impA >= m.iscA) problems.push({ field: 'impA', message: `Imp ${m.impA} A must be below Isc ${m.iscA} A` })
+  return problems
+}
+
 export const inverterSchema = z.object({
   id,
   name,
@@ -488,15 +513,11 @@ function checkCrossReferences(doc: DesignDocument, report: IssueSink): void {
       if (inv.kind !== 'stand_alone') report(at('pvInput'), `required for a ${inv.kind} inverter`)
       return
     }
-    const pvAt = (field: string) => ['equipment', 'inverters', i, 'pvInput', field]
-    if (pv.mpptMinV >= pv.mpptMaxV) report(pvAt('mpptMinV'), `MPPT minimum ${pv.mpptMinV} V must be below the MPPT maximum ${pv.mpptMaxV} V`)
-    if (pv.mpptMaxV > pv.maxDcVoltageV) report(pvAt('mpptMaxV'), `MPPT maximum ${pv.mpptMaxV} V exceeds the maximum DC voltage ${pv.maxDcVoltageV} V`)
-    if (pv.startVoltageV > pv.maxDcVoltageV) report(pvAt('startVoltageV'), `start voltage ${pv.startVoltageV} V exceeds the maximum DC voltage ${pv.maxDcVoltageV} V`)
+    for (const p of impossiblePvInput(pv)) report(['equipment', 'inverters', i, 'pvInput', p.field], p.message)
   })
 
   equipment.modules.forEach((m, i) => {
-    if (m.vmpV >= m.vocV) report(['equipment', 'modules', i, 'vmpV'], `Vmp ${m.vmpV} V must be below Voc ${m.vocV} V`)
-    if (m.impA >= m.iscA) report(['equipment', 'modules', i, 'impA'], `Imp ${m.impA} A must be below Isc ${m.iscA} A`)
+    for (const p of impossibleModuleCurve(m)) report(['equipment', 'modules', i, p.field], p.message)
   })
 
   if (doc.codeBasis.designLowC >= doc.codeBasis.designHighC) {

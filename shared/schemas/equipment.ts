@@ -4,6 +4,8 @@ import {
   chargeControllerSchema,
   combinerSchema,
   disconnectSchema,
+  impossibleModuleCurve,
+  impossiblePvInput,
   inverterSchema,
   moduleSchema,
   optimizerSchema,
@@ -50,23 +52,17 @@ type ModuleSpec = z.infer<typeof moduleSpecObject>
 
 /** Physically impossible module data: the maximum-power point lies inside the I–V curve. */
 const impossibleModule: Check<ModuleSpec> = (m) => [
-  ...(m.vmpV >= m.vocV ? [{ path: ['vmpV'], message: `Vmp ${m.vmpV} V must be below Voc ${m.vocV} V` }] : []),
-  ...(m.impA >= m.iscA ? [{ path: ['impA'], message: `Imp ${m.impA} A must be below Isc ${m.iscA} A` }] : []),
+  ...impossibleModuleCurve(m).map((p) => ({ path: [p.field], message: p.message })),
   ...(moduleEfficiencyPercent(m) > 100
     ? [{ path: ['pmaxW'], message: `${m.pmaxW} W from ${m.lengthMm} × ${m.widthMm} mm is over 100 % efficient; check the power and the size` }]
     : []),
 ]
 
 type PvInput = z.infer<typeof pvInputSchema>
-/** The same window checks the engine applies to an inverter in a design document. */
+/** The window checks the engine applies to an inverter in a design document, at the library's paths. */
 function impossibleWindow(pv: PvInput | null): Issue[] {
   if (pv === null) return []
-  const at = (field: keyof PvInput) => ['pvInput', field]
-  return [
-    ...(pv.mpptMinV >= pv.mpptMaxV ? [{ path: at('mpptMinV'), message: `MPPT minimum ${pv.mpptMinV} V must be below the MPPT maximum ${pv.mpptMaxV} V` }] : []),
-    ...(pv.mpptMaxV > pv.maxDcVoltageV ? [{ path: at('mpptMaxV'), message: `MPPT maximum ${pv.mpptMaxV} V exceeds the maximum DC voltage ${pv.maxDcVoltageV} V` }] : []),
-    ...(pv.startVoltageV > pv.maxDcVoltageV ? [{ path: at('startVoltageV'), message: `start voltage ${pv.startVoltageV} V exceeds the maximum DC voltage ${pv.maxDcVoltageV} V` }] : []),
-  ]
+  return impossiblePvInput(pv).map((p) => ({ path: ['pvInput', p.field], message: p.message }))
 }
 
 const inverterBase = inverterSchema.omit(withoutDocumentKeys)
