@@ -33,7 +33,7 @@ export function errorHandler(logger: Logger): ErrorRequestHandler {
     // body-parser errors carry a `type` and a `status`
     const type = (err as { type?: string }).type
     if (type === 'entity.parse.failed') {
-      return send(res, 400, { error: { code: 'invalid_json', message: 'The request body is not valid JSON' } })
+      return send(res, 400, { error: { code: 'invalid_json', message: 'The request body is not valid JSON', fields: [{ field: 'body', message: 'must be a well-formed JSON object or array' }] } })
     }
     if (type === 'entity.too.large') {
       return send(res, 413, { error: { code: 'payload_too_large', message: 'The request body is too large' } })

@@ -12,7 +12,7 @@ describe('error answers', () => {
   it('invalid JSON answers 400 in the common error shape', async () => {
     const res = await request(h.app).post('/api/auth/login').set('Content-Type', 'application/json').send('{"email":')
     expect(res.status).toBe(400)
-    expect(res.body).toEqual({ error: { code: 'invalid_json', message: expect.any(String) } })
+    expect(res.body).toEqual({ error: { code: 'invalid_json', message: expect.any(String), fields: [{ field: 'body', message: expect.any(String) }] } })
   })
 
   it('a body that is not JSON answers 415', async () => {
