@@ -62,7 +62,11 @@ export interface FuzzCase { key: DemoDesignKey; kind: 'plausible' | 'broken'; do
 export const plausibleDesign: fc.Arbitrary<FuzzCase> = fc.constantFrom(...KEYS).chain((key) =>
   fc.array(fc.tuple(fc.constantFrom(...NUMBER_PATHS[key]), numericChange), { minLength: 1, maxLength: 4 }).map((changes) => {
     const doc = structuredClone(DEMO_DESIGN_INPUTS[key])
-    for (const [path, change] of changes) set(doc, path, change(get(doc, path) as number))
+    for (const [path, change] of changes) {
+      const before = get(doc, path) as number
+      // counts, editions and ratings stay whole numbers, as a user would type them
+      set(doc, path, Number.isInteger(before) ? Math.round(change(before)) : change(before))
+    }
     return { key, kind: 'plausible' as const, doc }
   }),
 )
@@ -73,7 +77,9 @@ export const brokenDesign: fc.Arbitrary<FuzzCase> = fc.oneof(
     fc.array(fc.tuple(fc.constantFrom(...ALL_PATHS[key]), JUNK, fc.boolean()), { minLength: 1, maxLength: 3 }).map((breaks) => {
       const doc = structuredClone(DEMO_DESIGN_INPUTS[key])
       for (const [path, junk, remove] of breaks) {
-        if (get(doc, path.slice(0, -1)) !== undefined) set(doc, path, junk, remove)
+        // an earlier break may have replaced this value's parent
+        const parent = get(doc, path.slice(0, -1))
+        if (parent !== null && typeof parent === 'object') set(doc, path, junk, remove)
       }
       return { key, kind: 'broken' as const, doc }
     })) },
