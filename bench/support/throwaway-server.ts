@@ -27,7 +27,7 @@ export async function startThrowawayServer(env: Record<string, string> = {}): Pr
     DATA_DIR: path.join(root, 'data'),
     PORT: String(await freePort()),
     HOST: '127.0.0.1',
-    LOG_LEVEL: 'warn',
+    LOG_LEVEL: 'error',
     LOGIN_LIMIT_PER_IP: '1000000',
     LOGIN_LIMIT_PER_ACCOUNT: '1000000',
     ...env,
