@@ -1,15 +1,15 @@
 /**
  * Public API of the rendering core: design + evaluation → drawing model (sheets) → SVG / PDF.
- * Later work (the package, revisions, jobs) calls only what is exported here.
+ * Later work (the package, revisions, jobs) calls only what is exported here; the whole
+ * plan set (G-001 … E-604 and the datasheets) comes from `planSetSheets` / `planSetPdf`.
  */
-import { evaluateDesign, type Evaluation } from '../../shared/electrical'
+import { evaluateDesign } from '../../shared/electrical'
 import type { DesignDocument } from '../../shared/schemas/design'
 import type { Sheet } from './model'
 import { sheetsToPdf } from './pdf'
 import { calculationSheets } from './sheets/e602-calculations'
 import { singleLineSheets } from './sheets/e601-single-line'
-import { DEFAULT_SHEET_SIZE, sheetSize, type SheetSizeName } from './sheet-sizes'
-import type { PlanSetContext, RevisionEntry } from './sheets/frame'
+import { planSetContext, type RenderOptions } from './plan-set'
 import { sheetToSvg } from './svg'
 
 export type { Box, DrawItem, Sheet, TextItem } from './model'
@@ -23,23 +23,11 @@ export { frameSheet } from './sheets/frame'
 export { sheetToSvg } from './svg'
 export { sheetsToPdf, type PdfMetadata } from './pdf'
 export { printable } from './fonts'
-
-export interface RenderOptions {
-  /** Sheet size from the jurisdiction profile; ANSI B when not given. */
-  size?: SheetSizeName
-  revisions?: readonly RevisionEntry[]
-  preparedBy: string
-  /** The evaluation to print; computed from the document when not given. */
-  evaluation?: Evaluation
-}
-
-/** The sheet context, with a clear error for a bad option. */
-export function planSetContext(doc: DesignDocument, options: RenderOptions): PlanSetContext {
-  const size = options.size ?? DEFAULT_SHEET_SIZE
-  sheetSize(size)
-  if (options.preparedBy.trim() === '') throw new RangeError('preparedBy: must name the person who prepared the plan set')
-  return { doc, size, revisions: options.revisions ?? [], preparedBy: options.preparedBy }
-}
+export { planSetContext, planSetSheets, planSetPdf, attachmentLetter, type RenderOptions, type PlanSetInput, type DatasheetAttachment, type AttachmentOutcome } from './plan-set'
+export { coverSheet, type SheetIndexEntry } from './sheets/g001-cover'
+export { arrayLayoutSheets, planArrayLayout, compassPoint, type ArrayLayoutPage, type PlacedArrayBlock, type ModuleGroup } from './sheets/e101-array-layout'
+export { equipmentSheets, equipmentLines, attachmentFor, type AttachmentRef, type EquipmentLine } from './sheets/e604-equipment'
+export { labelSheets } from './sheets/e603-labels'
 
 /** E-601 and E-602 sheets of a design, in plan-set order. */
 export function electricalSheets(doc: DesignDocument, options: RenderOptions): Sheet[] {

@@ -34,6 +34,8 @@ export interface TextItem {
   size: number
   weight: FontWeight
   anchor: TextAnchor
+  /** White text, e.g. a label's signal word reversed out of a black band; black when absent. */
+  fill?: 'white'
   /** The text's own box (from the font metrics), used by the overlap checks. */
   bounds: Box
 }

@@ -14,7 +14,7 @@ const FILL = { black: BLACK, white: rgb(1, 1, 1), shade: rgb(0.91, 0.91, 0.91) }
  * OpenType features switched off: plan-sheet text needs no ligatures or contextual forms, and
  * shaping every string with them costs most of the PDF time. Widths then match `textWidth`.
  */
-const PLAIN_SHAPING = Object.fromEntries(['ccmp', 'locl', 'liga', 'clig', 'calt', 'rlig', 'rclt', 'kern', 'mark', 'mkmk', 'dlig', 'frac', 'numr', 'dnom', 'sups', 'subs', 'ordn', 'case', 'lnum', 'pnum', 'tnum', 'onum', 'salt', 'ss01', 'ss02', 'ss03', 'cv01', 'dist', 'curs'].map((f) => [f, false]))
+export const PLAIN_SHAPING = Object.fromEntries(['ccmp', 'locl', 'liga', 'clig', 'calt', 'rlig', 'rclt', 'kern', 'mark', 'mkmk', 'dlig', 'frac', 'numr', 'dnom', 'sups', 'subs', 'ordn', 'case', 'lnum', 'pnum', 'tnum', 'onum', 'salt', 'ss01', 'ss02', 'ss03', 'cv01', 'dist', 'curs'].map((f) => [f, false]))
 
 /** Point mapping of a page: model units (y down) to PDF user space (y up). */
 interface Frame { page: PDFPage; height: number; fonts: Record<FontWeight, PDFFont> }
@@ -48,7 +48,7 @@ function draw(f: Frame, item: DrawItem): void {
       const font = f.fonts[item.weight]
       const width = textWidth(item.text, item.size, item.weight)
       const x = item.anchor === 'start' ? item.x : item.anchor === 'middle' ? item.x - width / 2 : item.x - width
-      page.drawText(item.text, { x, y: height - item.y, size: item.size, font, color: BLACK })
+      page.drawText(item.text, { x, y: height - item.y, size: item.size, font, color: item.fill === 'white' ? FILL.white : BLACK })
       return
     }
     case 'group': {

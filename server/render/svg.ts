@@ -32,7 +32,7 @@ function draw(parent: Container, item: DrawItem): void {
     case 'text': {
       const anchor = item.anchor === 'middle' ? 'middle' : item.anchor === 'end' ? 'end' : 'start'
       parent.plain(item.text).attr({
-        x: round(item.x), y: round(item.y), 'font-size': item.size, 'font-weight': item.weight === 'bold' ? 700 : 400, 'text-anchor': anchor,
+        x: round(item.x), y: round(item.y), 'font-size': item.size, 'font-weight': item.weight === 'bold' ? 700 : 400, 'text-anchor': anchor, ...(item.fill === 'white' ? { fill: FILL.white } : {}),
       })
       return
     }

@@ -1,25 +1,8 @@
-import { createRequire } from 'node:module'
 import { describe, expect, it } from 'vitest'
 import { DEMO_DESIGN_INPUTS, demoDesign, type DemoDesignKey } from '../../shared/demo/designs'
 import { parseDesign, type DesignDocument } from '../../shared/schemas/design'
 import { singleLineSvg } from '../../server/render'
-
-/** The part of the XML DOM the checks use (the server build has no DOM types, jsdom ships none). */
-interface XmlElement { getAttribute(name: string): string | null; textContent: string | null }
-interface XmlDocument {
-  documentElement: XmlElement
-  getElementsByTagName(name: string): ArrayLike<XmlElement> & Iterable<XmlElement>
-  querySelectorAll(selector: string): ArrayLike<XmlElement> & Iterable<XmlElement>
-}
-type Jsdom = { JSDOM: new (html: string) => { window: { DOMParser: new () => { parseFromString(text: string, type: string): XmlDocument } } } }
-const { JSDOM } = createRequire(import.meta.url)('jsdom') as Jsdom
-
-/** A strict XML parse: a malformed document gives a parsererror element. */
-const parseSvg = (svg: string) => {
-  const doc = new new JSDOM('').window.DOMParser().parseFromString(svg, 'image/svg+xml')
-  expect(doc.getElementsByTagName('parsererror')).toHaveLength(0)
-  return doc
-}
+import { parseSvg } from './support/xml-dom'
 
 const HOSTILE = '<script>alert("x")</script> & \'Q\' "R" \u202Eevil\u202C \u200F\u0007bell\u0000'
 

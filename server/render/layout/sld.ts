@@ -5,7 +5,7 @@
  * tag keyed to the schedule. Nothing here computes an electrical value: ratings come from the
  * document, conductor data from the evaluation.
  */
-import { fmt, type Evaluation, type RunResult } from '../../../shared/electrical'
+import { drawingSizeLabel, fmt, type Evaluation, type RunResult } from '../../../shared/electrical'
 import type { DesignDocument, Run } from '../../../shared/schemas/design'
 import { text, textWidth, wrap } from '../fonts'
 import { type Box, type DrawItem, type GroupItem, type Point } from '../model'
@@ -98,7 +98,6 @@ const KIND_LABEL: Record<Run['kind'], string> = {
   service_feeder: 'Feeder',
 }
 
-const awg = (size: string) => (Number(size) >= 250 ? `${size} kcmil` : `#${size} AWG`)
 const plural = (n: number, one: string, many: string) => `(${n}) ${n === 1 ? one : many}`
 
 /** "S1.1–S1.12, S2.1": ids with a common prefix and consecutive trailing numbers written as a range. */
@@ -139,7 +138,7 @@ function scheduleLine(tag: string, runs: RunResult[], docRuns: Map<string, Run>)
   const sized = first.size !== null
   const sets = first.parallelSets > 1 ? `${first.parallelSets} sets of ` : ''
   const count = first.circuitConductors !== null ? `(${first.circuitConductors}) ` : ''
-  const conductors = sized ? `${sets}${count}${awg(first.size!)} ${run.material} ${run.insulation}` : 'not computed, see issues'
+  const conductors = sized ? `${sets}${count}${drawingSizeLabel(first.size!)} ${run.material} ${run.insulation}` : 'not computed, see issues'
   const raceway = run.method === 'FREE_AIR' ? 'free air' : run.method === 'CABLE' ? 'cable' : first.conduitTradeSize !== null
     ? `${first.conduitTradeSize} in ${run.method}, ${range(runs.map((r) => r.conduitFillPercent ?? 0), 1, '%')} fill`
     : run.method
@@ -151,7 +150,7 @@ function scheduleLine(tag: string, runs: RunResult[], docRuns: Map<string, Run>)
     circuit: KIND_LABEL[first.kind],
     fromTo: runs.length === 1 ? `${first.from} \u2192 ${first.to}` : `${runs.length} circuits`,
     conductors,
-    egc: first.egcSize !== null ? `${awg(first.egcSize)} ${run.material}` : '\u2014',
+    egc: first.egcSize !== null ? `${drawingSizeLabel(first.egcSize)} ${run.material}` : '\u2014',
     raceway,
     ocpd: first.ocpdA !== null ? `${fmt(first.ocpdA, 0)} A` : 'none required',
     maxCurrent: currents.length > 0 ? range(currents, 2, 'A') : '\u2014',

@@ -7,7 +7,7 @@ import { fmt, type AnyDerived, type Evaluation } from '../../../shared/electrica
 import { text } from '../fonts'
 import type { Sheet } from '../model'
 import { frameSheet, type PlanSetContext } from './frame'
-import { layoutTable, type TableColumn, type TableRow } from './table'
+import { pagedSheetId, paginateTable, type TableColumn, type TableRow } from './table'
 
 const COLUMNS: TableColumn[] = [
   { header: 'Step', weight: 14 }, { header: 'Formula with values', weight: 30 }, { header: 'Result', weight: 8 },
@@ -39,14 +39,9 @@ export function calculationSheets(ctx: PlanSetContext, evaluation: Evaluation): 
   const probe = frameSheet(ctx, 'E-602', 'Calculations', '')
   const content = { ...probe.content, y: probe.content.y + 14, height: probe.content.height - 14 }
   const style = { size: probe.widthPt > 2000 ? 7.5 : 6.5, maxLines: 4 }
-  const pages: { start: number; page: ReturnType<typeof layoutTable> }[] = []
-  for (let start = 0; start < all.length || pages.length === 0;) {
-    const page = layoutTable(COLUMNS, all, start, content, style)
-    pages.push({ start, page })
-    start += Math.max(1, page.rows)
-  }
-  return pages.map(({ page }, k) => {
-    const id = pages.length === 1 ? 'E-602' : `E-602.${k + 1}`
+  const pages = paginateTable(COLUMNS, all, content, style)
+  return pages.map((page, k) => {
+    const id = pagedSheetId('E-602', k, pages.length)
     const frame = frameSheet(ctx, id, 'Calculations', `page ${k + 1} of ${pages.length}`)
     const heading = `NEC ${evaluation.edition ?? ''} CALCULATIONS \u2014 engine ${evaluation.engineVersion} \u2014 overall ${STATUS_WORD[evaluation.status]}`
     return {

@@ -61,7 +61,7 @@ export function frameSheet(ctx: PlanSetContext, sheetId: string, sheetTitle: str
   const p = ctx.doc.project
   let y = border.y + BLOCK_PAD
   caption('Project', y)
-  let block = paragraph(p.name, x, y + 8 * scale, inner, 9 * scale, 'bold', 2)
+  let block = paragraph(p.name, x, y + 10 * scale, inner, 9 * scale, 'bold', 2)
   items.push(...block.items)
   for (const line of [p.siteAddress, p.city, `Owner: ${p.owner}`, `AHJ: ${p.jurisdiction}`, `Utility: ${p.utility}`, `Code basis: NFPA 70 (NEC) ${ctx.doc.codeBasis.necEdition} as adopted`, `Project code: ${p.code}`]) {
     block = paragraph(line, x, block.bottom, inner, 6.5 * scale, 'regular', 2)

@@ -66,3 +66,17 @@ export function layoutTable(columns: readonly TableColumn[], rows: readonly Tabl
   items.push({ kind: 'rect', box: { x: box.x, y: box.y, width: box.width, height: y - box.y }, strokeWidth: 0.8 })
   return { items: [{ kind: 'group', role: 'table', data: {}, items }], rows: i - start, height: y - box.y }
 }
+
+/** Every page of a table laid into the same box, as many as the rows need (one, when there are none). */
+export function paginateTable(columns: readonly TableColumn[], rows: readonly TableRow[], box: Box, style: TableStyle): TablePage[] {
+  const pages: TablePage[] = []
+  for (let start = 0; start < rows.length || pages.length === 0;) {
+    const page = layoutTable(columns, rows, start, box, style)
+    pages.push(page)
+    start += Math.max(1, page.rows)
+  }
+  return pages
+}
+
+/** `E-602` for a one-page sheet, `E-602.1` … `E-602.n` for its parts. */
+export const pagedSheetId = (id: string, k: number, pages: number): string => (pages === 1 ? id : `${id}.${k + 1}`)

@@ -7,3 +7,8 @@ export const sizeIndex = (size: ConductorSize): number => CONDUCTOR_SIZES.indexO
 export function sizeLabel(size: ConductorSize): string {
   return sizeIndex(size) >= sizeIndex('250') ? `${size} kcmil` : `${size} AWG`
 }
+
+/** Drawing and schedule notation: "#10 AWG" or "250 kcmil". */
+export function drawingSizeLabel(size: ConductorSize): string {
+  return sizeIndex(size) >= sizeIndex('250') ? `${size} kcmil` : `#${size} AWG`
+}
