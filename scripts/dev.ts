@@ -1,10 +1,12 @@
 import { spawn, type ChildProcess } from 'node:child_process'
 import { loadConfig } from '../server/config'
+import { superviseWorker } from '../server/jobs/worker-process'
 import { prepareLocalDatabase } from './lib/local-database'
 
 /**
- * `npm run dev`: the local cluster, the API with reload on change (tsx watch) on PORT, and the Vite
- * dev server with hot reload that proxies /api to it.
+ * `npm run dev`: the local cluster, the API with reload on change (tsx watch) on PORT, a plan-set
+ * worker (also reloaded on change; log lines start with [worker]), and the Vite dev server with hot
+ * reload that proxies /api to it.
  */
 async function main() {
   const config = loadConfig()
@@ -15,13 +17,16 @@ async function main() {
     spawn('npx', ['tsx', 'watch', '--clear-screen=false', 'server/main.ts'], { stdio: 'inherit', env }),
     spawn('npx', ['vite'], { stdio: 'inherit', env }),
   ]
+  const worker = superviseWorker({ command: 'npx', args: ['tsx', 'watch', '--clear-screen=false', 'server/worker.ts'], env, log })
   let stopping = false
   const stop = () => {
     if (stopping) return
     stopping = true
     for (const child of children) child.kill('SIGTERM')
-    database.stop()
-    process.exit(0)
+    void worker.stop().finally(() => {
+      database.stop()
+      process.exit(0)
+    })
   }
   for (const child of children) child.once('exit', stop)
   process.once('SIGINT', stop)

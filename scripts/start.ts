@@ -1,13 +1,15 @@
 import { build } from 'vite'
 import { DEMO_PASSWORD, DEMO_USERS } from '../server/demo/seed'
 import { ConfigError, loadConfig } from '../server/config'
+import { superviseWorker, type WorkerProcess } from '../server/jobs/worker-process'
 import { runServer, type RunningServer } from '../server/server'
 import { ClusterError } from './lib/postgres-cluster'
 import { prepareLocalDatabase } from './lib/local-database'
 
 /**
  * `npm start`: PostgreSQL (installed and started when needed), migrations, demo data, the built
- * client, and the app + API on http://127.0.0.1:8080. Ctrl-C stops the server and the cluster.
+ * client, the app + API on http://127.0.0.1:8080, and a plan-set worker beside it (its log lines
+ * start with [worker]). Ctrl-C stops the worker, the server and the cluster.
  */
 async function main() {
   // when piped (e.g. into tee) Ctrl-C closes the pipe first: shutting down must not die on EPIPE
@@ -16,12 +18,13 @@ async function main() {
   const config = loadConfig()
   const log = (line: string) => console.log(`[stringline] ${line}`)
   const database = await prepareLocalDatabase(config.dataDir, log)
-  const app: { running?: RunningServer } = {}
+  const app: { running?: RunningServer; worker?: WorkerProcess } = {}
   let stopping = false
   const shutdown = async () => {
     if (stopping) return
     stopping = true
     log('Stopping…')
+    await app.worker?.stop().catch(() => {})
     await app.running?.close().catch(() => {})
     database.stop()
     log('Stopped.')
@@ -36,6 +39,10 @@ async function main() {
   }
   const running = await runServer(config, database.url, { demo: true })
   app.running = running
+  // after the migrations: the worker uses the tables the API process has just brought up to date
+  // NODE_ENV as this launcher read it: the client build sets it to production in this process
+  const workerEnv = { ...process.env, NODE_ENV: config.nodeEnv, DATABASE_URL: database.url }
+  app.worker = superviseWorker({ command: process.execPath, args: ['--import', 'tsx', 'server/worker.ts'], env: workerEnv, log })
   log(`Open ${running.url} — demo sign-ins (local use only), password "${DEMO_PASSWORD}":`)
   for (const user of DEMO_USERS) log(`  ${user.role.padEnd(12)} ${user.email}`)
   log('Press Ctrl-C to stop.')

@@ -8,6 +8,7 @@ import { pino, type Logger } from 'pino'
 import { pinoHttp } from 'pino-http'
 import type { DataSource } from 'typeorm'
 import { createAuthenticator } from './auth/guard'
+import type { PackageQueue } from './jobs/queue'
 import type { AppConfig } from './config'
 import { apiNotFound, errorHandler } from './http/error-handler'
 import { mountRoutes } from './http/mount'
@@ -18,11 +19,13 @@ export interface AppDeps {
   db: DataSource
   config: AppConfig
   logger?: Logger
+  /** Where generations are sent; made over `db` (started on first use) when not given. The caller stops it. */
+  queue?: PackageQueue
 }
 
 /** The Express app, separate from `listen` so tests drive it with supertest. */
-export function createApp({ db, config, logger = pino({ level: config.logLevel }) }: AppDeps): Express {
-  const services = createServices(db, config)
+export function createApp({ db, config, logger = pino({ level: config.logLevel }), queue }: AppDeps): Express {
+  const services = createServices(db, config, queue)
   const requireRoles = createAuthenticator(config, services.auth)
   const app = express()
   app.disable('x-powered-by')
@@ -30,7 +33,13 @@ export function createApp({ db, config, logger = pino({ level: config.logLevel }
   app.use(
     helmet({
       contentSecurityPolicy: {
-        directives: { 'img-src': ["'self'", 'data:', 'blob:'], 'style-src': ["'self'", "'unsafe-inline'"] },
+        // blob: for the plan-set previews the client builds from authenticated downloads (PDF in a frame)
+        directives: {
+          'img-src': ["'self'", 'data:', 'blob:'],
+          'style-src': ["'self'", "'unsafe-inline'"],
+          'frame-src': ["'self'", 'blob:'],
+          'object-src': ["'self'", 'blob:'],
+        },
       },
     }),
   )

@@ -1,6 +1,7 @@
 import { randomBytes } from 'node:crypto'
 import { existsSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs'
 import path from 'node:path'
+import { readS3Settings, S3SettingsError, type S3Settings } from './storage/s3-config'
 
 /** Runtime settings, all from the environment (see .env.example). */
 export interface AppConfig {
@@ -31,6 +32,23 @@ export interface AppConfig {
   loginLimitPerAccount: number
   /** Express `trust proxy` setting, for the client address behind a reverse proxy. */
   trustProxy: string | false
+  /** Plan-set generation queue (pg-boss, own schema in the same database). */
+  jobs: {
+    /** A running generation not finished in this time is taken as lost (its worker died) and retried [s]. */
+    expireSeconds: number
+    /** Further attempts after the first one fails. */
+    retryLimit: number
+    /** Wait before a retry [s]. */
+    retryDelaySeconds: number
+    /** How often a worker looks for expired jobs [s]. */
+    maintenanceSeconds: number
+    /** How often an idle worker asks for new jobs [s]. */
+    pollSeconds: number
+  }
+  /** Tests only (NODE_ENV=test): the worker stops without finishing when it reaches this step. */
+  faultHangAtStep: string | null
+  /** S3-compatible object storage; null: files on local disk under DATA_DIR/files. */
+  s3: S3Settings | null
 }
 
 export class ConfigError extends Error {}
@@ -70,6 +88,24 @@ function positiveInt(env: NodeJS.ProcessEnv, name: string, fallback: number): nu
   return value
 }
 
+function wholeNumber(env: NodeJS.ProcessEnv, name: string, fallback: number): number {
+  const raw = env[name]
+  if (raw === undefined || raw === '') return fallback
+  const value = Number(raw)
+  if (!Number.isInteger(value) || value < 0) throw new ConfigError(`${name} must be a whole number, 0 or more`)
+  return value
+}
+
+/** Object storage settings, with a partial set reported like any other bad setting. */
+function objectStorage(env: NodeJS.ProcessEnv): S3Settings | null {
+  try {
+    return readS3Settings(env)
+  } catch (err) {
+    if (err instanceof S3SettingsError) throw new ConfigError(err.message)
+    throw err
+  }
+}
+
 export function loadConfig(env: NodeJS.ProcessEnv = process.env): AppConfig {
   const nodeEnv = readNodeEnv(env.NODE_ENV)
   const dataDir = path.resolve(env.DATA_DIR ?? '.data')
@@ -96,5 +132,15 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): AppConfig {
     loginLimitPerIp: positiveInt(env, 'LOGIN_LIMIT_PER_IP', 30),
     loginLimitPerAccount: positiveInt(env, 'LOGIN_LIMIT_PER_ACCOUNT', 5),
     trustProxy: env.TRUST_PROXY || false,
+    jobs: {
+      expireSeconds: positiveInt(env, 'JOB_EXPIRE_SECONDS', 15 * 60),
+      retryLimit: wholeNumber(env, 'JOB_RETRY_LIMIT', 2),
+      retryDelaySeconds: wholeNumber(env, 'JOB_RETRY_DELAY_SECONDS', 20),
+      maintenanceSeconds: positiveInt(env, 'JOB_MAINTENANCE_SECONDS', 30),
+      pollSeconds: positiveInt(env, 'JOB_POLL_SECONDS', 2),
+    },
+    // a fault hook must never reach a real deployment
+    faultHangAtStep: nodeEnv === 'test' ? env.STRINGLINE_FAULT_HANG_AT_STEP || null : null,
+    s3: objectStorage(env),
   }
 }

@@ -4,6 +4,7 @@ import { createApp } from './app'
 import type { AppConfig } from './config'
 import { createDataSource } from './db/data-source'
 import { seedDemo } from './demo/seed'
+import { PackageQueue } from './jobs/queue'
 
 export interface RunningServer {
   server: Server
@@ -11,7 +12,7 @@ export interface RunningServer {
   close(): Promise<void>
 }
 
-/** Connects, migrates, optionally loads the demo data, and listens. */
+/** Connects, migrates, optionally loads the demo data, starts the queue (sender side), and listens. */
 export async function runServer(config: AppConfig, databaseUrl: string, options: { demo: boolean }): Promise<RunningServer> {
   const logger = pino({ level: config.logLevel })
   const db = createDataSource(databaseUrl)
@@ -19,7 +20,10 @@ export async function runServer(config: AppConfig, databaseUrl: string, options:
   const applied = await db.runMigrations({ transaction: 'each' })
   if (applied.length) logger.info({ migrations: applied.map((m) => m.name) }, 'migrations applied')
   if (options.demo) logger.info({ demo: await seedDemo(db, config.bcryptCost) }, 'demo data')
-  const server = createServer(createApp({ db, config, logger }))
+  // this process only sends generations; worker processes (server/worker.ts) run them
+  const queue = new PackageQueue(databaseUrl, config.jobs, 'api', (err) => logger.error({ err }, 'queue error'))
+  await queue.boss()
+  const server = createServer(createApp({ db, config, logger, queue }))
   await new Promise<void>((resolve, reject) => {
     server.once('error', reject)
     server.listen(config.port, config.host, resolve)
@@ -32,6 +36,7 @@ export async function runServer(config: AppConfig, databaseUrl: string, options:
     async close() {
       await new Promise<void>((resolve) => server.close(() => resolve()))
       server.closeAllConnections()
+      await queue.stop()
       await db.destroy()
     },
   }

@@ -3,6 +3,8 @@ import { DesignEntity } from './design'
 import { EquipmentItemEntity } from './equipment-item'
 import { JurisdictionProfileEntity } from './jurisdiction-profile'
 import { OrganizationEntity } from './organization'
+import { PackageJobEntity } from './package-job'
+import { PlanSetRevisionEntity } from './plan-set-revision'
 import { ProjectEntity } from './project'
 import { RefreshTokenEntity } from './refresh-token'
 import { StoredFileEntity } from './stored-file'
@@ -14,6 +16,8 @@ export {
   EquipmentItemEntity,
   JurisdictionProfileEntity,
   OrganizationEntity,
+  PackageJobEntity,
+  PlanSetRevisionEntity,
   ProjectEntity,
   RefreshTokenEntity,
   StoredFileEntity,
@@ -24,6 +28,8 @@ export type { Design } from './design'
 export type { EquipmentItem } from './equipment-item'
 export type { JurisdictionProfile } from './jurisdiction-profile'
 export type { Organization } from './organization'
+export type { PackageJob } from './package-job'
+export type { PlanSetRevision } from './plan-set-revision'
 export type { Project } from './project'
 export type { RefreshToken } from './refresh-token'
 export type { StoredFile } from './stored-file'
@@ -39,4 +45,6 @@ export const ENTITIES = [
   StoredFileEntity,
   EquipmentItemEntity,
   DesignEntity,
+  PlanSetRevisionEntity,
+  PackageJobEntity,
 ]

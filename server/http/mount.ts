@@ -1,4 +1,5 @@
 import express, { Router, type RequestHandler } from 'express'
+import { create as contentDisposition } from 'content-disposition'
 import multer from 'multer'
 import type { Role } from '../../shared/auth/roles'
 import type { Services } from '../services'
@@ -75,7 +76,8 @@ export function mountRoutes(
         if (result.body === undefined) res.status(result.status).end()
         else res.status(result.status).json(result.body)
       } else if (result instanceof Download) {
-        res.attachment(result.fileName).type(result.mediaType).send(result.body)
+        res.setHeader('Content-Disposition', contentDisposition(result.fileName, { type: result.disposition }))
+        res.type(result.mediaType).send(result.body)
       } else if (result === undefined) {
         res.status(204).end()
       } else {

@@ -34,6 +34,8 @@ export class Download {
     readonly body: Buffer | string,
     readonly mediaType: string,
     readonly fileName: string,
+    /** `inline` lets the browser show it (PDF and SVG previews); downloads by default. */
+    readonly disposition: 'attachment' | 'inline' = 'attachment',
   ) {}
 }
 

@@ -9,6 +9,7 @@ import { equipmentRoutes } from './equipment'
 import { healthRoutes } from './health'
 import { jurisdictionRoutes } from './jurisdictions'
 import { projectRoutes } from './projects'
+import { revisionRoutes } from './revisions'
 import { userRoutes } from './users'
 
 /** The route table: every API route, each with its access declaration. */
@@ -23,6 +24,7 @@ export function buildRoutes(config: AppConfig): AnyRoute[] {
     ...jurisdictionRoutes,
     ...equipmentRoutes,
     ...designRoutes,
+    ...revisionRoutes,
   ]
   table.push(...docsRoutes(table))
   return table

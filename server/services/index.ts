@@ -1,5 +1,6 @@
 import type { DataSource } from 'typeorm'
 import type { AppConfig } from '../config'
+import { connectionStringOf, PackageQueue } from '../jobs/queue'
 import { createFileStorage } from '../storage'
 import { AuditService } from './audit-service'
 import { AuthService } from './auth-service'
@@ -8,6 +9,7 @@ import { EquipmentService } from './equipment-service'
 import { HealthService } from './health-service'
 import { JurisdictionService } from './jurisdiction-service'
 import { ProjectService } from './project-service'
+import { RevisionService } from './revision-service'
 import { UploadService } from './upload-service'
 import { UserService } from './user-service'
 
@@ -22,14 +24,17 @@ export interface Services {
   designs: DesignService
   uploads: UploadService
   equipment: EquipmentService
+  revisions: RevisionService
 }
 
-export function createServices(db: DataSource, config: AppConfig): Services {
+/** `queue` is where generations are sent; by default one is made over the same database, started on first use. */
+export function createServices(db: DataSource, config: AppConfig, queue = new PackageQueue(connectionStringOf(db), config.jobs, 'api')): Services {
   const audit = new AuditService(db)
   const users = new UserService(db, audit, config.bcryptCost)
   const jurisdictions = new JurisdictionService(db, audit)
   const projects = new ProjectService(db, audit, jurisdictions)
-  const uploads = new UploadService(db, createFileStorage(config))
+  const storage = createFileStorage(config)
+  const uploads = new UploadService(db, storage)
   return {
     audit,
     users,
@@ -40,5 +45,6 @@ export function createServices(db: DataSource, config: AppConfig): Services {
     designs: new DesignService(db, audit, projects),
     uploads,
     equipment: new EquipmentService(db, audit, uploads, config),
+    revisions: new RevisionService(db, audit, projects, storage, queue),
   }
 }

@@ -32,4 +32,11 @@ describe('configuration', () => {
     const config = loadConfig({ JWT_SECRET: 'y'.repeat(40) })
     expect(config).toMatchObject({ host: '127.0.0.1', port: 8080, bcryptCost: 12, accessTokenTtlSeconds: 600 })
   })
+
+  it('takes object storage only with every S3 setting, and names what is missing', () => {
+    const secret = { JWT_SECRET: 'z'.repeat(40) }
+    expect(loadConfig(secret).s3).toBeNull()
+    expect(() => loadConfig({ ...secret, S3_BUCKET: 'plans' })).toThrow(ConfigError)
+    expect(() => loadConfig({ ...secret, S3_BUCKET: 'plans' })).toThrow(/S3_ENDPOINT.*S3_SECRET_ACCESS_KEY/)
+  })
 })

@@ -3,6 +3,7 @@ import { mkdtempSync } from 'node:fs'
 import os from 'node:os'
 import path from 'node:path'
 import type { Express } from 'express'
+import { pino } from 'pino'
 import request from 'supertest'
 import type { DataSource } from 'typeorm'
 import { inject } from 'vitest'
@@ -13,6 +14,8 @@ import { loadConfig, type AppConfig } from '../../../server/config'
 import { createDataSource } from '../../../server/db/data-source'
 import { DEMO_PASSWORD, DEMO_USERS, seedDemo } from '../../../server/demo/seed'
 import { OrganizationEntity, UserEntity } from '../../../server/entities'
+import { PackageQueue } from '../../../server/jobs/queue'
+import { startPackageWorker, type RunningWorker } from '../../../server/jobs/worker'
 import type { Role } from '../../../shared/auth/roles'
 
 /** A database URL on the test server with another database name. */
@@ -37,23 +40,38 @@ export interface Harness {
   app: Express
   db: DataSource
   config: AppConfig
+  /** URL of this harness's own database (for worker child processes). */
+  databaseUrl: string
   close(): Promise<void>
 }
 
-/** A fresh database with every migration applied, and the app over it. */
-export async function startHarness(overrides: Record<string, string> = {}): Promise<Harness> {
+/** Queue settings short enough that retries and lost workers show within seconds. */
+export const FAST_JOBS = { JOB_EXPIRE_SECONDS: '10', JOB_RETRY_DELAY_SECONDS: '1', JOB_MAINTENANCE_SECONDS: '1', JOB_POLL_SECONDS: '1' }
+
+/**
+ * A fresh database with every migration applied, and the app over it. `worker: true` also runs a
+ * plan-set worker in this process, so generations requested through the app complete.
+ */
+export async function startHarness(overrides: Record<string, string> = {}, options: { worker?: boolean } = {}): Promise<Harness> {
   const adminUrl = inject('adminDatabaseUrl')
   const name = `sl_test_${randomBytes(6).toString('hex')}`
   await ensureDatabase(adminUrl, name)
-  const db = createDataSource(withDatabase(adminUrl, name))
+  const databaseUrl = withDatabase(adminUrl, name)
+  const db = createDataSource(databaseUrl)
   await db.initialize()
   await db.runMigrations()
   const config = testConfig(overrides)
+  const queue = new PackageQueue(databaseUrl, config.jobs, 'api')
+  let worker: RunningWorker | undefined
+  if (options.worker) worker = await startPackageWorker({ db, config, logger: pino({ level: 'silent' }) })
   return {
-    app: createApp({ db, config }),
+    app: createApp({ db, config, queue }),
     db,
     config,
+    databaseUrl,
     async close() {
+      await worker?.stop()
+      await queue.stop()
       await db.destroy()
       await dropDatabase(adminUrl, name)
     },
