@@ -52,6 +52,19 @@ export async function uploadFile<T>(path: string, file: File, fields: Record<str
 
 /** Fetches a file the API sends as an attachment and hands it to the browser to save. */
 export async function downloadFile(path: string, fileName: string): Promise<void> {
+  const url = URL.createObjectURL(await fetchBlob(path))
+  const link = document.createElement('a')
+  link.href = url
+  link.download = fileName
+  link.click()
+  URL.revokeObjectURL(url)
+}
+
+/**
+ * The bytes of an authenticated GET as a Blob (the token goes in the header, never in a URL),
+ * with one refresh on 401; `mediaType` overrides the answer's type, e.g. for an `<img>` preview.
+ */
+export async function fetchBlob(path: string, mediaType?: string): Promise<Blob> {
   const auth = useAuthStore()
   const get = (token: string | null) =>
     fetch(`/api${path}`, { headers: token ? { Authorization: `Bearer ${token}` } : {}, credentials: 'include' }).catch((cause: unknown) => {
@@ -63,10 +76,6 @@ export async function downloadFile(path: string, fileName: string): Promise<void
     if (fresh) response = await get(fresh.token)
   }
   if (!response.ok) throw await errorFromResponse(response)
-  const url = URL.createObjectURL(await response.blob())
-  const link = document.createElement('a')
-  link.href = url
-  link.download = fileName
-  link.click()
-  URL.revokeObjectURL(url)
+  // built from the bytes: a Blob of one realm (fetch's) is not a part another (the page's) accepts
+  return new Blob([await response.arrayBuffer()], { type: mediaType ?? response.headers.get('Content-Type') ?? '' })
 }

@@ -101,7 +101,7 @@ describe('route table', () => {
     }
     expect(records.map((record) => record.path)).toEqual([
       '/sign-in', '/', '/', '/projects', '/equipment', '/jurisdictions', '/users', '/profile',
-      '/projects/:projectId', '/projects/:projectId/design', '/:pathMatch(.*)*',
+      '/projects/:projectId', '/projects/:projectId/design', '/projects/:projectId/package', '/:pathMatch(.*)*',
     ])
   })
 })

@@ -29,6 +29,7 @@ export const SHELL_PAGES = [
 export const PROJECT_PAGES = [
   { name: 'project', path: '/projects/:projectId', title: 'Project', roles: ANY_ROLE, component: () => import('@/pages/ProjectPage.vue') },
   { name: 'project-design', path: '/projects/:projectId/design', title: 'Design', roles: ANY_ROLE, component: () => import('@/pages/DesignEditorPage.vue') },
+  { name: 'project-package', path: '/projects/:projectId/package', title: 'Plan set', roles: ANY_ROLE, component: () => import('@/pages/ProjectPackagePage.vue') },
 ] as const satisfies readonly Omit<ShellPage, 'icon'>[]
 
 export type ShellPageEntry = (typeof SHELL_PAGES)[number]
