@@ -65,6 +65,21 @@ function draw(f: Frame, item: DrawItem): void {
   }
 }
 
+/**
+ * Plan sheets repeat much of their text (title block, headers, units, statuses): each string is
+ * shaped once per document. The glyphs stay in the subset from the first encoding.
+ */
+function rememberEncodings(font: PDFFont): PDFFont {
+  const encode = font.encodeText.bind(font)
+  const known = new Map<string, ReturnType<PDFFont['encodeText']>>()
+  font.encodeText = (text: string) => {
+    let encoded = known.get(text)
+    if (!encoded) known.set(text, (encoded = encode(text)))
+    return encoded
+  }
+  return font
+}
+
 export interface PdfMetadata { title: string; subject?: string; author?: string }
 
 /** A PDF with one vector page per sheet. */
@@ -72,8 +87,8 @@ export async function sheetsToPdf(sheets: readonly Sheet[], metadata: PdfMetadat
   const pdf = await PDFDocument.create()
   pdf.registerFontkit(fontkit)
   const fonts = {
-    regular: await pdf.embedFont(fontBytes('regular'), { subset: true, features: PLAIN_SHAPING }),
-    bold: await pdf.embedFont(fontBytes('bold'), { subset: true, features: PLAIN_SHAPING }),
+    regular: rememberEncodings(await pdf.embedFont(fontBytes('regular'), { subset: true, features: PLAIN_SHAPING })),
+    bold: rememberEncodings(await pdf.embedFont(fontBytes('bold'), { subset: true, features: PLAIN_SHAPING })),
   }
   pdf.setTitle(metadata.title)
   if (metadata.subject) pdf.setSubject(metadata.subject)
