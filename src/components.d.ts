@@ -52,6 +52,8 @@ declare module 'vue' {
     ElTabPane: typeof import('element-plus/es')['ElTabPane']
     ElTabs: typeof import('element-plus/es')['ElTabs']
     ElTag: typeof import('element-plus/es')['ElTag']
+    ElTimeline: typeof import('element-plus/es')['ElTimeline']
+    ElTimelineItem: typeof import('element-plus/es')['ElTimelineItem']
     ElTooltip: typeof import('element-plus/es')['ElTooltip']
     EquipmentFormDialog: typeof import('./components/equipment/EquipmentFormDialog.vue')['default']
     EquipmentTable: typeof import('./components/design/EquipmentTable.vue')['default']
@@ -63,6 +65,7 @@ declare module 'vue' {
     NotAllowed: typeof import('./components/NotAllowed.vue')['default']
     PackageFiles: typeof import('./components/package/PackageFiles.vue')['default']
     ProjectCreateDialog: typeof import('./components/ProjectCreateDialog.vue')['default']
+    ProjectTimeline: typeof import('./components/workflow/ProjectTimeline.vue')['default']
     ResultsPanel: typeof import('./components/design/ResultsPanel.vue')['default']
     RevisionPreview: typeof import('./components/package/RevisionPreview.vue')['default']
     RevisionsTable: typeof import('./components/package/RevisionsTable.vue')['default']
@@ -78,6 +81,8 @@ declare module 'vue' {
     UserCreateDialog: typeof import('./components/UserCreateDialog.vue')['default']
     UserEditDialog: typeof import('./components/UserEditDialog.vue')['default']
     VoltageDropChart: typeof import('./components/design/charts/VoltageDropChart.vue')['default']
+    WorkflowActions: typeof import('./components/workflow/WorkflowActions.vue')['default']
+    WorkflowStepDialog: typeof import('./components/workflow/WorkflowStepDialog.vue')['default']
   }
   export interface GlobalDirectives {
     vLoading: typeof import('element-plus/es')['ElLoadingDirective']

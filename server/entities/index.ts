@@ -6,6 +6,7 @@ import { OrganizationEntity } from './organization'
 import { PackageJobEntity } from './package-job'
 import { PlanSetRevisionEntity } from './plan-set-revision'
 import { ProjectEntity } from './project'
+import { ProjectTransitionEntity } from './project-transition'
 import { RefreshTokenEntity } from './refresh-token'
 import { StoredFileEntity } from './stored-file'
 import { UserEntity } from './user'
@@ -19,6 +20,7 @@ export {
   PackageJobEntity,
   PlanSetRevisionEntity,
   ProjectEntity,
+  ProjectTransitionEntity,
   RefreshTokenEntity,
   StoredFileEntity,
   UserEntity,
@@ -31,6 +33,7 @@ export type { Organization } from './organization'
 export type { PackageJob } from './package-job'
 export type { PlanSetRevision } from './plan-set-revision'
 export type { Project } from './project'
+export type { ProjectTransition } from './project-transition'
 export type { RefreshToken } from './refresh-token'
 export type { StoredFile } from './stored-file'
 export type { User } from './user'
@@ -47,4 +50,5 @@ export const ENTITIES = [
   DesignEntity,
   PlanSetRevisionEntity,
   PackageJobEntity,
+  ProjectTransitionEntity,
 ]

@@ -11,6 +11,7 @@ import { jurisdictionRoutes } from './jurisdictions'
 import { projectRoutes } from './projects'
 import { revisionRoutes } from './revisions'
 import { userRoutes } from './users'
+import { workflowRoutes } from './workflow'
 
 /** The route table: every API route, each with its access declaration. */
 export function buildRoutes(config: AppConfig): AnyRoute[] {
@@ -25,6 +26,7 @@ export function buildRoutes(config: AppConfig): AnyRoute[] {
     ...equipmentRoutes,
     ...designRoutes,
     ...revisionRoutes,
+    ...workflowRoutes,
   ]
   table.push(...docsRoutes(table))
   return table

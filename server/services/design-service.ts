@@ -8,6 +8,7 @@ import { conflict, notFound, unprocessable, versionConflict } from '../http/erro
 import type { AuditService } from './audit-service'
 import type { ProjectService } from './project-service'
 import { rethrowUnique, updateAtVersion } from './rows'
+import type { WorkflowService } from './workflow-service'
 
 const WHAT = 'Design'
 /** Two first saves at once: the second finds the first one's row. */
@@ -27,6 +28,7 @@ export class DesignService {
     private readonly db: DataSource,
     private readonly audit: AuditService,
     private readonly projects: ProjectService,
+    private readonly workflow: WorkflowService,
   ) {}
 
   private toDto(d: Design): DesignDto {
@@ -80,6 +82,8 @@ export class DesignService {
           { field: 'document.systemKind', message: `the project is ${project.systemKind}; change the project first or design a ${project.systemKind} system` },
         ])
       }
+      // a stamped set stays with its revision: changing the design starts the project over in draft
+      await this.workflow.reopenForDesignEdit(manager, actor, project)
       const repo = manager.getRepository(DesignEntity)
       const existing = await repo.findOneBy({ projectId })
       const changes = { document: doc, ...indexedColumns(doc), updatedBy: actor.id }

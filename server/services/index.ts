@@ -12,6 +12,7 @@ import { ProjectService } from './project-service'
 import { RevisionService } from './revision-service'
 import { UploadService } from './upload-service'
 import { UserService } from './user-service'
+import { WorkflowService } from './workflow-service'
 
 /** The domain services of one app instance, built once over its data source. */
 export interface Services {
@@ -25,6 +26,7 @@ export interface Services {
   uploads: UploadService
   equipment: EquipmentService
   revisions: RevisionService
+  workflow: WorkflowService
 }
 
 /** `queue` is where generations are sent; by default one is made over the same database, started on first use. */
@@ -35,6 +37,7 @@ export function createServices(db: DataSource, config: AppConfig, queue = new Pa
   const projects = new ProjectService(db, audit, jurisdictions)
   const storage = createFileStorage(config)
   const uploads = new UploadService(db, storage)
+  const workflow = new WorkflowService(db, audit, projects)
   return {
     audit,
     users,
@@ -42,9 +45,10 @@ export function createServices(db: DataSource, config: AppConfig, queue = new Pa
     health: new HealthService(db),
     jurisdictions,
     projects,
-    designs: new DesignService(db, audit, projects),
+    designs: new DesignService(db, audit, projects, workflow),
     uploads,
     equipment: new EquipmentService(db, audit, uploads, config),
     revisions: new RevisionService(db, audit, projects, storage, queue),
+    workflow,
   }
 }

@@ -45,11 +45,15 @@ export class ProjectService {
     if (!rows.length) return []
     const userIds = [...new Set(rows.flatMap((r) => [r.designerId, r.reviewerId, r.coordinatorId]).filter((v) => v !== null))]
     const jurisdictionIds = [...new Set(rows.map((r) => r.jurisdictionId).filter((v) => v !== null))]
-    const [users, jurisdictions, designs] = await Promise.all([
-      userIds.length ? manager.getRepository(UserEntity).find({ select: { id: true, name: true }, where: { id: In(userIds) } }) : [],
-      jurisdictionIds.length ? manager.getRepository(JurisdictionProfileEntity).find({ select: { id: true, name: true }, where: { id: In(jurisdictionIds) } }) : [],
-      manager.getRepository(DesignEntity).find({ select: { projectId: true, version: true, evaluationStatus: true, evaluatedVersion: true }, where: { projectId: In(rows.map((r) => r.id)) } }),
-    ])
+    const findUsers = async () => (userIds.length ? manager.getRepository(UserEntity).find({ select: { id: true, name: true }, where: { id: In(userIds) } }) : [])
+    const findJurisdictions = async () =>
+      jurisdictionIds.length ? manager.getRepository(JurisdictionProfileEntity).find({ select: { id: true, name: true }, where: { id: In(jurisdictionIds) } }) : []
+    const findDesigns = () =>
+      manager.getRepository(DesignEntity).find({ select: { projectId: true, version: true, evaluationStatus: true, evaluatedVersion: true }, where: { projectId: In(rows.map((r) => r.id)) } })
+    // a transaction holds one connection, which takes one query at a time; the pool takes them together
+    const [users, jurisdictions, designs] = manager.queryRunner?.isTransactionActive
+      ? [await findUsers(), await findJurisdictions(), await findDesigns()]
+      : await Promise.all([findUsers(), findJurisdictions(), findDesigns()])
     const person = (id: string | null): PersonRef | null => {
       const u = id ? users.find((x) => x.id === id) : undefined
       return u ? { id: u.id, name: u.name } : null
