@@ -37,6 +37,18 @@ export default defineConfig({
         // element-plus style entries import .css files: let Vite (not Node) load the package
         test: { name: 'client', include: ['src/**/*.spec.ts'], environment: 'jsdom', server: { deps: { inline: ['element-plus'] } } },
       },
+      // the designer's journey in Debian's Chromium against the app started as `npm start` starts it
+      {
+        extends: true,
+        test: {
+          name: 'browser',
+          include: ['tests/browser/**/*.test.ts'],
+          globalSetup: ['tests/browser/support/global-app.ts'],
+          testTimeout: 180_000,
+          // the journeys share one app and its demo data: one after the other
+          fileParallelism: false,
+        },
+      },
     ],
   },
 })

@@ -1,11 +1,14 @@
 import type { ErrorRequestHandler, RequestHandler } from 'express'
 import type { Logger } from 'pino'
+import { QueryRunnerAlreadyReleasedError } from 'typeorm'
 import { HttpError, type ErrorBody } from './errors'
 
 const DB_DOWN_CODES = new Set(['ECONNREFUSED', 'ECONNRESET', 'ETIMEDOUT', 'EPIPE', '57P01', '57P02', '57P03'])
 
 /** True when the error says PostgreSQL cannot be reached (as opposed to a bad query). */
 export function isDatabaseUnavailable(err: unknown): boolean {
+  // TypeORM releases a transaction's query runner when its connection drops, so the next query of that transaction throws this
+  if (err instanceof QueryRunnerAlreadyReleasedError) return true
   let current: unknown = err
   for (let depth = 0; current && typeof current === 'object' && depth < 4; depth++) {
     const e = current as { code?: unknown; message?: unknown; driverError?: unknown; cause?: unknown }

@@ -2,7 +2,6 @@ import { createHash } from 'node:crypto'
 import Papa from 'papaparse'
 import { PDFParse } from 'pdf-parse'
 import { describe, expect, it } from 'vitest'
-import yauzl from 'yauzl'
 import { buildPackage, packageFileName, type BuiltPackage } from '../../server/package/build'
 import { calculationsCsv } from '../../server/package/calculations-csv'
 import { DEMO_DESIGN_INPUTS, demoDesign } from '../../shared/demo/designs'
@@ -10,30 +9,7 @@ import { evaluateDesign, SAFETY_CAUTION } from '../../shared/electrical'
 import { parseDesign, type DesignDocument } from '../../shared/schemas/design'
 import { PACKAGE_FILE_NAMES, type PackageStep } from '../../shared/schemas/revision'
 import { parseSvg, type XmlDocument } from './support/xml-dom'
-
-/** Every entry of a zip, in central-directory order, read with yauzl. */
-function unzip(zip: Buffer): Promise<{ name: string; bytes: Buffer; modified: Date }[]> {
-  return new Promise((resolve, reject) => {
-    yauzl.fromBuffer(zip, { lazyEntries: true }, (err, file) => {
-      if (err) return reject(err)
-      const out: { name: string; bytes: Buffer; modified: Date }[] = []
-      file.on('entry', (entry: yauzl.Entry) => {
-        file.openReadStream(entry, (e, stream) => {
-          if (e) return reject(e)
-          const chunks: Buffer[] = []
-          stream.on('data', (c: Buffer) => chunks.push(c))
-          stream.on('end', () => {
-            out.push({ name: entry.fileName, bytes: Buffer.concat(chunks), modified: entry.getLastModDate() })
-            file.readEntry()
-          })
-        })
-      })
-      file.on('end', () => resolve(out))
-      file.on('error', reject)
-      file.readEntry()
-    })
-  })
-}
+import { zipEntries, type ZipEntry } from '../support/unzip'
 
 const CREATED = new Date('2026-12-01T15:30:00Z')
 
@@ -43,11 +19,11 @@ async function build(doc: DesignDocument, steps: PackageStep[] = [], size?: 'ANS
     doc, evaluation, size, preparedBy: 'R. Quill', revisions: [{ number: 3, date: '2026-12-01', description: 'Issued for permit' }],
     revision: 3, description: 'Issued for permit', created: CREATED, productVersion: '0.1.0',
   }, (s) => steps.push(s))
-  return { built, evaluation, entries: await unzip(built.zip) }
+  return { built, evaluation, entries: await zipEntries(built.zip) }
 }
 
 const sha = (b: Buffer) => createHash('sha256').update(b).digest('hex')
-const entry = (entries: Awaited<ReturnType<typeof unzip>>, name: string) => entries.find((e) => e.name === name)!.bytes
+const entry = (entries: ZipEntry[], name: string) => entries.find((e) => e.name === name)!.bytes
 
 describe('submission package', () => {
   it('packs exactly the package files, in order, each matching the manifest', async () => {

@@ -3,13 +3,13 @@ import { PDFParse } from 'pdf-parse'
 import { pino } from 'pino'
 import request from 'supertest'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import yauzl from 'yauzl'
 import { demoDesign } from '../../shared/demo/designs'
 import { PACKAGE_FILE_NAMES } from '../../shared/schemas/revision'
 import { DesignEntity, PackageJobEntity, PlanSetRevisionEntity } from '../../server/entities'
 import { PackageQueue } from '../../server/jobs/queue'
 import { startPackageWorker, type RunningWorker } from '../../server/jobs/worker'
 import { fieldsOf, samplePdf, startWorkspace, type Workspace } from './support/workspace'
+import { unzip } from '../support/unzip'
 
 let w: Workspace
 let worker: RunningWorker
@@ -31,28 +31,6 @@ const binary = (req: request.Test) => req.buffer(true).parse((res, done) => {
   res.on('data', (c: Buffer) => chunks.push(c))
   res.on('end', () => done(null, Buffer.concat(chunks)))
 })
-
-async function unzip(zip: Buffer): Promise<Map<string, Buffer>> {
-  const zipFile = await new Promise<yauzl.ZipFile>((resolve, reject) => yauzl.fromBuffer(zip, { lazyEntries: true }, (err, z) => (err ? reject(err) : resolve(z))))
-  const entries = new Map<string, Buffer>()
-  await new Promise<void>((resolve, reject) => {
-    zipFile.on('entry', (entry: yauzl.Entry) => {
-      zipFile.openReadStream(entry, (err, stream) => {
-        if (err) return reject(err)
-        const chunks: Buffer[] = []
-        stream.on('data', (c: Buffer) => chunks.push(c))
-        stream.on('end', () => {
-          entries.set(entry.fileName, Buffer.concat(chunks))
-          zipFile.readEntry()
-        })
-      })
-    })
-    zipFile.on('end', resolve)
-    zipFile.on('error', reject)
-    zipFile.readEntry()
-  })
-  return entries
-}
 
 async function pdfText(bytes: Buffer): Promise<string> {
   const parser = new PDFParse({ data: new Uint8Array(bytes) })
