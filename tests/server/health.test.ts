@@ -1,32 +1,19 @@
-import { chmodSync, mkdtempSync, rmSync } from 'node:fs'
-import os from 'node:os'
-import path from 'node:path'
 import request from 'supertest'
 import type { DataSource } from 'typeorm'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import {
-  clusterAt, clusterUrl, ensureDatabase, findPostgresBin, freePort, initCluster, startCluster, stopCluster, type Cluster,
-} from '../../scripts/lib/postgres-cluster'
 import { createApp } from '../../server/app'
 import { createDataSource } from '../../server/db/data-source'
 import { testConfig } from './support/harness'
+import { startPrivateCluster, type PrivateCluster } from './support/private-cluster'
 
 /** This file stops and starts PostgreSQL, so it runs its own cluster, not the shared test one. */
-let bin: string
-let cluster: Cluster
-let root: string
+let postgres: PrivateCluster
 let db: DataSource
 let app: ReturnType<typeof createApp>
 
 beforeAll(async () => {
-  bin = findPostgresBin()!
-  root = mkdtempSync(path.join(os.tmpdir(), 'stringline-health-'))
-  chmodSync(root, 0o755)
-  cluster = { ...clusterAt(path.join(root, 'cluster'), await freePort()), fast: true }
-  initCluster(bin, cluster)
-  startCluster(bin, cluster)
-  await ensureDatabase(clusterUrl(cluster), 'health')
-  db = createDataSource(clusterUrl(cluster, 'health'))
+  postgres = await startPrivateCluster('health', 'health')
+  db = createDataSource(postgres.url)
   await db.initialize()
   await db.runMigrations()
   app = createApp({ db, config: testConfig() })
@@ -34,8 +21,7 @@ beforeAll(async () => {
 
 afterAll(async () => {
   await db?.destroy()
-  stopCluster(bin, cluster)
-  rmSync(root, { recursive: true, force: true })
+  postgres?.remove()
 })
 
 describe('GET /api/health', () => {
@@ -44,7 +30,7 @@ describe('GET /api/health', () => {
     expect(up.status).toBe(200)
     expect(up.body).toEqual({ status: 'ok', db: 'up' })
 
-    stopCluster(bin, cluster)
+    await postgres.fastShutdown()
     const started = Date.now()
     const down = await request(app).get('/api/health')
     expect(down.status).toBe(503)
@@ -56,7 +42,7 @@ describe('GET /api/health', () => {
     expect(login.status).toBe(503)
     expect(login.body.error.code).toBe('database_unavailable')
 
-    startCluster(bin, cluster)
+    postgres.start()
     let again = await request(app).get('/api/health')
     for (let i = 0; i < 20 && again.status !== 200; i++) {
       await new Promise((r) => setTimeout(r, 250))
