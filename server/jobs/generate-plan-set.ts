@@ -14,9 +14,13 @@ import {
   ProjectEntity,
   StoredFileEntity,
   UserEntity,
+  type JurisdictionProfile,
   type PackageJob,
+  type Project,
 } from '../entities'
 import { buildPackage } from '../package/build'
+import type { AhjRequirements } from '../render'
+import { profileNotes } from '../services/jurisdiction-service'
 import type { FileStorage } from '../storage'
 import { blockersMessage, generationBlockers } from './readiness'
 
@@ -30,6 +34,12 @@ const STEP_PROGRESS: Record<PackageStep, number> = {
   packing: 75,
   publishing: 90,
   done: 100,
+}
+
+/** The profile's notes filled in for this project, one a line, and the label sections it requires. */
+function ahjRequirements(profile: JurisdictionProfile, project: Project): AhjRequirements {
+  const notes = profileNotes(profile, project)
+  return { notes: notes.split('\n').map((l) => l.trim()).filter((l) => l !== ''), requiredLabelSections: profile.requiredLabels }
 }
 
 /** A failure that another attempt cannot cure (the design itself is the problem): no retry. */
@@ -138,6 +148,7 @@ export class PlanSetGenerator {
         revisions,
         preparedBy: requester?.name ?? doc.project.installer,
         attachments: await this.datasheets(job.organizationId, doc),
+        ahj: profile ? ahjRequirements(profile, project) : undefined,
         revision: number,
         description: job.description,
         created,

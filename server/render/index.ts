@@ -13,7 +13,7 @@ import { planSetContext, type RenderOptions } from './plan-set'
 import { sheetToSvg } from './svg'
 
 export type { Box, DrawItem, Sheet, TextItem } from './model'
-export type { PlanSetContext, RevisionEntry } from './sheets/frame'
+export type { AhjRequirements, PlanSetContext, RevisionEntry } from './sheets/frame'
 export type { CollisionBox, ScheduleLine, SingleLineLayout, SingleLineOptions } from './layout/sld'
 export { SHEET_SIZES, SHEET_SIZE_NAMES, DEFAULT_SHEET_SIZE, type SheetSizeName } from './sheet-sizes'
 export { layoutSingleLine, compactIds } from './layout/sld'

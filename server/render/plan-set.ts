@@ -16,7 +16,7 @@ import { singleLineSheets } from './sheets/e601-single-line'
 import { calculationSheets } from './sheets/e602-calculations'
 import { labelSheets } from './sheets/e603-labels'
 import { equipmentSheets, type AttachmentRef } from './sheets/e604-equipment'
-import { frameSheet, type PlanSetContext, type RevisionEntry } from './sheets/frame'
+import { frameSheet, type AhjRequirements, type PlanSetContext, type RevisionEntry } from './sheets/frame'
 import { coverSheet, type SheetIndexEntry } from './sheets/g001-cover'
 
 export interface RenderOptions {
@@ -26,6 +26,8 @@ export interface RenderOptions {
   preparedBy: string
   /** The evaluation to print; computed from the document when not given. */
   evaluation?: Evaluation
+  /** The jurisdiction profile's notes and required labels; none when the project names no profile. */
+  ahj?: AhjRequirements
 }
 
 /** The sheet context, with a clear error for a bad option. */
@@ -33,7 +35,7 @@ export function planSetContext(doc: DesignDocument, options: RenderOptions): Pla
   const size = options.size ?? DEFAULT_SHEET_SIZE
   sheetSize(size)
   if (options.preparedBy.trim() === '') throw new RangeError('preparedBy: must name the person who prepared the plan set')
-  return { doc, size, revisions: options.revisions ?? [], preparedBy: options.preparedBy }
+  return { doc, size, revisions: options.revisions ?? [], preparedBy: options.preparedBy, ahj: options.ahj ?? { notes: [], requiredLabelSections: [] } }
 }
 
 export interface DatasheetAttachment { equipmentName: string; fileName: string; bytes: Uint8Array }

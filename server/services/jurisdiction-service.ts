@@ -109,6 +109,15 @@ export class JurisdictionService {
 
   /** The profile's general notes filled in for one project. */
   generalNotes(profile: JurisdictionProfile, project: GeneralNotesContext['project']): string {
-    return renderGeneralNotes(profile.generalNotesTemplate, { project, jurisdiction: { name: profile.name, necEdition: profile.necEdition } })
+    return profileNotes(profile, project)
   }
+}
+
+/** A profile's general-notes template filled in for one project (only the fields templates may use are passed). */
+export function profileNotes(profile: JurisdictionProfile, project: GeneralNotesContext['project']): string {
+  const { code, name, customerName, siteAddress, siteCity, utility, systemKind } = project
+  return renderGeneralNotes(profile.generalNotesTemplate, {
+    project: { code, name, customerName, siteAddress, siteCity, utility, systemKind },
+    jurisdiction: { name: profile.name, necEdition: profile.necEdition },
+  })
 }

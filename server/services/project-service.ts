@@ -205,7 +205,6 @@ export class ProjectService {
     const project = await this.getOwned(organizationId, id)
     if (!project.jurisdictionId) return { jurisdictionId: null, notes: '' }
     const profile = await this.jurisdictions.getOwned(organizationId, project.jurisdictionId)
-    const { code, name, customerName, siteAddress, siteCity, utility, systemKind } = project
-    return { jurisdictionId: profile.id, notes: this.jurisdictions.generalNotes(profile, { code, name, customerName, siteAddress, siteCity, utility, systemKind }) }
+    return { jurisdictionId: profile.id, notes: this.jurisdictions.generalNotes(profile, project) }
   }
 }

@@ -14,8 +14,8 @@ import { textsOf, type DrawItem } from '../../server/render/model'
 import type { PlanSetContext } from '../../server/render/sheets/frame'
 
 const flat = (s: string) => s.replace(/\s+/g, ' ')
-const context = (doc: DesignDocument, size: PlanSetContext['size'] = 'ANSI_B'): PlanSetContext => ({
-  doc, size, preparedBy: 'R. Quill', revisions: [{ number: 0, date: '2026-12-01', description: 'Issued for permit' }],
+const context = (doc: DesignDocument, size: PlanSetContext['size'] = 'ANSI_B', ahj: PlanSetContext['ahj'] = { notes: [], requiredLabelSections: [] }): PlanSetContext => ({
+  doc, size, preparedBy: 'R. Quill', revisions: [{ number: 0, date: '2026-12-01', description: 'Issued for permit' }], ahj,
 })
 
 async function pdfPages(bytes: Uint8Array): Promise<string[]> {
@@ -88,6 +88,22 @@ describe('E-603 labels and placards', () => {
     expect(text).toContain('414.1 V')
     expect(text).toContain('32 A')
     expect(text).toContain('690.56(C)(1)')
+  })
+
+  it("lists each label section the jurisdiction profile requires, with the label that answers it or a bold request to ask the AHJ", async () => {
+    const doc = demoDesign('gridTied')
+    const evaluation = evaluateDesign(doc)
+    const ahj = { notes: [], requiredLabelSections: ['690.56(C)', '705.10', '690.15(D)'] }
+    const labels = requiredLabels(doc, evaluation)
+    const text = (await pdfPages(await sheetsToPdf(labelSheets(context(doc, 'ANSI_B', ahj), evaluation), { title: 't' }))).join(' ')
+    expect(text).toContain(`Labels ${doc.project.jurisdiction} requires on every job`)
+    // 690.56(C) (rapid shutdown, NEC 2023 690.56(C)(1) and (C)(2)) is answered by the labels above that cite it
+    const rapidShutdown = labels.filter((l) => l.reference.includes('690.56(C)')).map((l) => `#${l.number}`)
+    expect(rapidShutdown.length).toBeGreaterThan(0)
+    expect(text).toContain(`Section 690.56(C): see label ${rapidShutdown.join(', ')} above.`)
+    expect(text).toMatch(/Section 705\.10: see label #\d+ above\./)
+    // a section no label of this system cites is not silently dropped
+    expect(text).toContain('Section 690.15(D): no label of this system answers to it in the adopted edition')
   })
 })
 

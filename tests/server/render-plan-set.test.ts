@@ -87,6 +87,18 @@ describe('plan-set PDF', () => {
     expect(pages.find((p) => p.includes('EQUIPMENT SCHEDULE'))).toMatch(new RegExp(`MIC Generic 290 VA microinverter ${units} `))
   })
 
+  it("prints the jurisdiction profile's own notes on G-001 after the general notes", async () => {
+    const doc = demoDesign('gridTied')
+    const ahj = { notes: ['1. Keep the approved set on site for the inspector.', '2. Call 48 hours ahead for the final.'], requiredLabelSections: [] }
+    const { pages } = await readPdf((await planSetPdf({ ...input(doc), ahj })).pdf)
+    const cover = pages[0]!
+    expect(cover).toContain(`NOTES REQUIRED BY ${doc.project.jurisdiction.toUpperCase()}`)
+    expect(cover.indexOf('Keep the approved set on site')).toBeGreaterThan(cover.indexOf('GENERAL NOTES'))
+    expect(cover).toContain('2. Call 48 hours ahead for the final.')
+    // without a profile there is no such block
+    expect((await readPdf((await planSetPdf(input(doc))).pdf)).pages[0]).not.toContain('NOTES REQUIRED BY')
+  })
+
   it('merges datasheets after E-604 with a margin line, and turns a broken or encrypted one into a placeholder page', async () => {
     const doc = demoDesign('gridTied')
     const encrypted = new TextEncoder().encode('%PDF-1.7\n1 0 obj <</Type/Catalog/Pages 2 0 R>> endobj\n2 0 obj <</Type/Pages/Kids[]/Count 0>> endobj\n3 0 obj <</Filter/Standard/V 2/R 3/O(x)/U(y)/P -4>> endobj\ntrailer <</Root 1 0 R/Encrypt 3 0 R/Size 4>>\n%%EOF')

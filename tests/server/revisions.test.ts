@@ -109,7 +109,11 @@ describe('generating a revision', () => {
     expect(pdf.headers['content-disposition']).toMatch(/^inline; filename=/)
     expect(sha256(pdf.body)).toBe(first.files.find((f) => f.name === 'plan-set.pdf')!.sha256)
     // the datasheet attached to the library item the design names is in the set
-    expect(await pdfText(pdf.body)).toContain('Datasheet of the demo string inverter')
+    const planSet = await pdfText(pdf.body)
+    expect(planSet).toContain('Datasheet of the demo string inverter')
+    // the demo jurisdiction profile's own notes and label sections are printed (G-001, E-603)
+    expect(planSet).toContain('Call for rough and final electrical inspections')
+    expect(planSet).toMatch(/Section 705\.10: see label #\d+ above\./)
     const svg = await binary(request(w.h.app).get(`${projectPath('CH-0101')}/revisions/0/files/single-line.svg`).set(w.as('reviewer')))
     expect(svg.status).toBe(200)
     expect(svg.headers['content-type']).toContain('image/svg+xml')

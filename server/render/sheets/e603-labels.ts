@@ -29,6 +29,23 @@ function rows(labels: RequiredLabel[]): TableRow[] {
   }))
 }
 
+/** The section a label cites, without its "NEC <edition>" prefix. */
+const citedSection = (l: RequiredLabel) => l.reference.replace(/^NEC \d{4} /, '')
+
+/** One row per section the jurisdiction profile requires a label for, with the labels above that answer it. */
+function ahjRows(ctx: PlanSetContext, labels: RequiredLabel[]): TableRow[] {
+  if (ctx.ahj.requiredLabelSections.length === 0) return []
+  return [
+    { heading: `Labels ${ctx.doc.project.jurisdiction} requires on every job` },
+    ...ctx.ahj.requiredLabelSections.map((section) => {
+      const answering = labels.filter((l) => citedSection(l).startsWith(section))
+      return answering.length > 0
+        ? { cells: ['\u2014', `Section ${section}: see label ${answering.map((l) => `#${l.number}`).join(', ')} above.`, '', '', '', section] }
+        : { cells: ['\u2014', `Section ${section}: no label of this system answers to it in the adopted edition; ask ${ctx.doc.project.jurisdiction} what it must say and where.`, 'As the AHJ directs', '', '', section], bold: true }
+    }),
+  ]
+}
+
 /** The E-603 pages: `E-603`, or `E-603.1` … `E-603.n` when the labels run over several. */
 export function labelSheets(ctx: PlanSetContext, evaluation: Evaluation): Sheet[] {
   const labels = requiredLabels(ctx.doc, evaluation)
@@ -39,7 +56,7 @@ export function labelSheets(ctx: PlanSetContext, evaluation: Evaluation): Sheet[
   const noteLines = wrap(`LABEL MATERIAL (${necRef(edition, LABEL_MATERIAL_NOTE.reference)}): ${LABEL_MATERIAL_NOTE.text} Sizes are common practice; printable copies are in labels.pdf.`, size, 'regular', probe.content.width)
   const noteHeight = (noteLines.length + 1) * size * 1.3
   const content = { ...probe.content, y: probe.content.y + 14, height: probe.content.height - 14 - noteHeight }
-  const all = rows(labels)
+  const all = [...rows(labels), ...ahjRows(ctx, labels)]
   const pages = paginateTable(COLUMNS, all, content, { size, maxLines: 8 })
   const total = labels.reduce((t, l) => t + l.quantity, 0)
   const missing = labels.filter((l) => l.missing.length > 0).length

@@ -25,6 +25,16 @@ export interface PlanSetContext {
   revisions: readonly RevisionEntry[]
   /** Person who prepared the set, printed with the installer. */
   preparedBy: string
+  /** What the jurisdiction profile adds to every set it receives. */
+  ahj: AhjRequirements
+}
+
+/** From the jurisdiction profile: notes for the cover and the NEC sections whose labels it requires. */
+export interface AhjRequirements {
+  /** General notes, already filled in for this project; printed after ours on G-001. */
+  notes: readonly string[]
+  /** Sections such as `690.56(C)`; E-603 shows which label answers each. */
+  requiredLabelSections: readonly string[]
 }
 
 const MARGIN = 36

@@ -192,7 +192,13 @@ export function coverSheet(ctx: PlanSetContext, evaluation: Evaluation, index: r
   const scope = scopeOfWork(doc, evaluation)
   items.push(...notesBlock('Scope of work', scope, { x: lefts[1]!, y: top, width: widths[1]!, height }, style))
   const notesTop = top + notesHeight(scope, widths[1]!, style) + GAP
-  items.push(...notesBlock('General notes', generalNotes(doc), { x: lefts[1]!, y: notesTop, width: widths[1]!, height: top + height - notesTop }, { size, numbered: true }))
+  const general = generalNotes(doc)
+  items.push(...notesBlock('General notes', general, { x: lefts[1]!, y: notesTop, width: widths[1]!, height: top + height - notesTop }, { size, numbered: true }))
+  if (ctx.ahj.notes.length > 0) {
+    // the profile's own notes, as the AHJ wrote them (they carry their own numbering, if any)
+    const ahjTop = notesTop + notesHeight(general, widths[1]!, { size, numbered: true }) + GAP
+    items.push(...notesBlock(`Notes required by ${doc.project.jurisdiction}`, ctx.ahj.notes, { x: lefts[1]!, y: ahjTop, width: widths[1]!, height: top + height - ahjTop }, style))
+  }
 
   // column 3: the sheet index
   items.push(...sheetIndex(index, { x: lefts[2]!, y: top, width: widths[2]!, height }, size))
