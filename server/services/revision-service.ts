@@ -13,14 +13,10 @@ import { revisionNarrativePdf } from '../render/narrative-pdf'
 import { StoredFileMissing, type FileStorage } from '../storage'
 import type { AuditService } from './audit-service'
 import type { ProjectService } from './project-service'
-import { findOwned } from './rows'
+import { findOwned, violatedUniqueIndex } from './rows'
 
 const ACTIVE_JOB_INDEX = 'package_jobs_one_active_key'
 
-const isUniqueViolation = (err: unknown, constraint: string) => {
-  const e = err as { code?: string; constraint?: string; driverError?: { code?: string; constraint?: string } }
-  return (e.driverError?.code ?? e.code) === '23505' && (e.driverError?.constraint ?? e.constraint) === constraint
-}
 
 /** Published plan sets of a project, and the background jobs that make them. */
 export class RevisionService {
@@ -128,7 +124,7 @@ export class RevisionService {
         return this.jobDto(job, manager)
       })
     } catch (err) {
-      if (isUniqueViolation(err, ACTIVE_JOB_INDEX)) throw await this.busy(projectId)
+      if (violatedUniqueIndex(err) === ACTIVE_JOB_INDEX) throw await this.busy(projectId)
       throw err
     }
   }
@@ -157,7 +153,7 @@ export class RevisionService {
         return this.jobDto(await manager.getRepository(PackageJobEntity).findOneByOrFail({ id: job.id }), manager)
       })
     } catch (err) {
-      if (isUniqueViolation(err, ACTIVE_JOB_INDEX)) throw await this.busy(projectId)
+      if (violatedUniqueIndex(err) === ACTIVE_JOB_INDEX) throw await this.busy(projectId)
       throw err
     }
   }

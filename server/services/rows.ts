@@ -78,12 +78,16 @@ export async function updateAtVersion<E extends ObjectLiteral & { version: numbe
   return current
 }
 
+/** The unique index an error violated (PostgreSQL 23505), or null for any other error. */
+export function violatedUniqueIndex(err: unknown): string | null {
+  const e = err as { code?: string; constraint?: string; driverError?: { code?: string; constraint?: string } }
+  return (e.driverError?.code ?? e.code) === '23505' ? (e.driverError?.constraint ?? e.constraint ?? null) : null
+}
+
 /** Turns a unique-index violation into 409 naming the field; any other error passes through. */
 export function rethrowUnique(err: unknown, indexes: Record<string, FieldError>): never {
-  const e = err as { code?: string; constraint?: string; driverError?: { code?: string; constraint?: string } }
-  const code = e.driverError?.code ?? e.code
-  const constraint = e.driverError?.constraint ?? e.constraint
-  const field = constraint ? indexes[constraint] : undefined
-  if (code === '23505' && field) throw conflict(`${field.message}`, [field])
+  const index = violatedUniqueIndex(err)
+  const field = index ? indexes[index] : undefined
+  if (field) throw conflict(`${field.message}`, [field])
   throw err
 }
