@@ -4,7 +4,7 @@
  * zipped in PACKAGE_FILE_NAMES order as `<project-code>_rev<NN>.zip`.
  */
 import { PACKAGE_FILE_NAMES, PACKAGE_STEPS, type PackageStep } from '../../shared/schemas/revision'
-import { planSetContext, singleLineSvg } from '../render'
+import { planSetContext, sheetToSvg } from '../render'
 import { labelsPdf } from '../render/labels-pdf'
 import { planSetPdf, type PlanSetInput } from '../render/plan-set'
 import { calculationsCsv } from './calculations-csv'
@@ -65,14 +65,15 @@ export async function buildPackage(input: PackageInput, onStep?: (step: PackageS
   if (Number.isNaN(input.created.getTime())) throw new RangeError('created: must be a valid date')
   const report = forwardOnly(onStep)
   const { doc, evaluation } = input
-  const options = { size: input.size, revisions: input.revisions, preparedBy: input.preparedBy, evaluation }
 
   report('drawing')
-  const singleLine = stackSvgParts(singleLineSvg(doc, options), `${doc.project.name} \u2014 single-line diagram, revision ${input.revision}`)
   const planSet = await planSetPdf(input, report)
+  // the E-601 parts the plan set has just laid out, drawn again as SVG rather than laid out twice
+  const diagramParts = planSet.sheets.filter((sheet) => sheet.id.startsWith('E-601')).map(sheetToSvg)
+  const singleLine = stackSvgParts(diagramParts, `${doc.project.name} \u2014 single-line diagram, revision ${input.revision}`)
   report('attachments')
   report('labels')
-  const labels = await labelsPdf(planSetContext(doc, options), evaluation)
+  const labels = await labelsPdf(planSetContext(doc, input), evaluation)
   report('packing')
 
   const contents: Record<Exclude<PackageFileName, 'manifest.json'>, Buffer> = {
@@ -91,5 +92,5 @@ export async function buildPackage(input: PackageInput, onStep?: (step: PackageS
   const files: BuiltFile[] = [...listed, { name: 'manifest.json' as const, bytes: json(manifest), mediaType: MEDIA_TYPES['manifest.json'] }]
     .map((f) => ({ ...f, sha256: sha256Hex(f.bytes) }))
   const zip = await zipEntries(files, input.created)
-  return { zip, fileName: packageFileName(doc.project.code, input.revision), manifest, files, sheetCount: planSet.sheetCount }
+  return { zip, fileName: packageFileName(doc.project.code, input.revision), manifest, files, sheetCount: planSet.sheets.length }
 }

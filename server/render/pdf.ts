@@ -82,6 +82,15 @@ function rememberEncodings(font: PDFFont): PDFFont {
 
 export interface PdfMetadata { title: string; subject?: string; author?: string }
 
+/** Title, subject and author of a PDF, with Stringline as its producer. */
+export function setMetadata(pdf: PDFDocument, metadata: PdfMetadata): void {
+  pdf.setTitle(metadata.title)
+  if (metadata.subject) pdf.setSubject(metadata.subject)
+  if (metadata.author) pdf.setAuthor(metadata.author)
+  pdf.setProducer('Stringline')
+  pdf.setCreator('Stringline')
+}
+
 /** A PDF with one vector page per sheet. */
 export async function sheetsToPdf(sheets: readonly Sheet[], metadata: PdfMetadata): Promise<Uint8Array> {
   const pdf = await PDFDocument.create()
@@ -90,11 +99,7 @@ export async function sheetsToPdf(sheets: readonly Sheet[], metadata: PdfMetadat
     regular: rememberEncodings(await pdf.embedFont(fontBytes('regular'), { subset: true, features: PLAIN_SHAPING })),
     bold: rememberEncodings(await pdf.embedFont(fontBytes('bold'), { subset: true, features: PLAIN_SHAPING })),
   }
-  pdf.setTitle(metadata.title)
-  if (metadata.subject) pdf.setSubject(metadata.subject)
-  if (metadata.author) pdf.setAuthor(metadata.author)
-  pdf.setProducer('Stringline')
-  pdf.setCreator('Stringline')
+  setMetadata(pdf, metadata)
   for (const sheet of sheets) {
     const page = pdf.addPage([sheet.widthPt, sheet.heightPt])
     const frame: Frame = { page, height: sheet.heightPt, fonts }

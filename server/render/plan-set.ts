@@ -9,7 +9,7 @@ import type { Evaluation } from '../../shared/electrical'
 import type { DesignDocument } from '../../shared/schemas/design'
 import { fontBytes, printable, text, truncate, wrap } from './fonts'
 import type { DrawItem, Sheet } from './model'
-import { sheetsToPdf } from './pdf'
+import { PLAIN_SHAPING, setMetadata, sheetsToPdf } from './pdf'
 import { DEFAULT_SHEET_SIZE, sheetSize, type SheetSizeName } from './sheet-sizes'
 import { arrayLayoutSheets } from './sheets/e101-array-layout'
 import { singleLineSheets } from './sheets/e601-single-line'
@@ -157,7 +157,7 @@ const SHEETS_PER_DOCUMENT = 4
 async function mergeDatasheets(out: PDFDocument, read: Awaited<ReturnType<typeof readDatasheet>>[], refs: AttachmentRef[], mainSheets: number, projectCode: string, onStep?: (step: 'attachments') => void) {
   onStep?.('attachments')
   out.registerFontkit(fontkit)
-  const font = await out.embedFont(fontBytes('regular'), { subset: true })
+  const font = await out.embedFont(fontBytes('regular'), { subset: true, features: PLAIN_SHAPING })
   let at = mainSheets
   for (const [k, r] of read.entries()) {
     if (!('pdf' in r)) {
@@ -179,10 +179,11 @@ async function mergeDatasheets(out: PDFDocument, read: Awaited<ReturnType<typeof
 }
 
 /**
- * The plan-set PDF: every sheet as vector pages, then the datasheets. `onStep` hears when drawing
- * starts and when the datasheets are merged.
+ * The plan-set PDF: every sheet as vector pages, then the datasheets; with the sheets it drew (the
+ * package takes the single-line SVG from them). `onStep` hears when drawing starts and when the
+ * datasheets are merged.
  */
-export async function planSetPdf(input: PlanSetInput, onStep?: (step: 'drawing' | 'attachments') => void): Promise<{ pdf: Uint8Array; sheetCount: number; pageCount: number }> {
+export async function planSetPdf(input: PlanSetInput, onStep?: (step: 'drawing' | 'attachments') => void): Promise<{ pdf: Uint8Array; sheets: Sheet[]; pageCount: number }> {
   const attachments = input.attachments ?? []
   const read = await Promise.all(attachments.map(readDatasheet))
   const outcomes: AttachmentOutcome[] = read.map((r) => ('error' in r ? { error: r.error } : { pages: r.pages }))
@@ -193,7 +194,7 @@ export async function planSetPdf(input: PlanSetInput, onStep?: (step: 'drawing' 
   const merged = read.filter((r) => 'pdf' in r).length
   if (sheets.length <= SHEETS_PER_DOCUMENT && merged === 0) {
     const pdf = await sheetsToPdf(sheets, metadata)
-    return { pdf, sheetCount: sheets.length, pageCount: sheets.length }
+    return { pdf, sheets, pageCount: sheets.length }
   }
 
   // pdf-lib holds every drawing operator of a document until it is saved: a large set is drawn a
@@ -204,11 +205,7 @@ export async function planSetPdf(input: PlanSetInput, onStep?: (step: 'drawing' 
     for (const page of await out.copyPages(batch, batch.getPageIndices())) out.addPage(page)
   }
   if (merged > 0) await mergeDatasheets(out, read, refs, mainSheets, p.code, onStep)
-  out.setTitle(metadata.title)
-  out.setSubject(metadata.subject)
-  out.setAuthor(metadata.author)
-  out.setProducer('Stringline')
-  out.setCreator('Stringline')
+  setMetadata(out, metadata)
   const pdf = await out.save()
-  return { pdf, sheetCount: sheets.length, pageCount: out.getPageCount() }
+  return { pdf, sheets, pageCount: out.getPageCount() }
 }

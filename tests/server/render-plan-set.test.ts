@@ -110,7 +110,7 @@ describe('plan-set PDF', () => {
     ]
     const out = await planSetPdf(input(doc, attachments))
     const { pages } = await readPdf(out.pdf)
-    expect(out.pageCount).toBe(out.sheetCount + 2 + 1)
+    expect(out.pageCount).toBe(out.sheets.length + 2 + 1)
     expect(pages).toHaveLength(out.pageCount)
     const e604 = pages.findIndex((p) => p.includes('EQUIPMENT SCHEDULE'))
     const after = pages.slice(e604 + 1)
