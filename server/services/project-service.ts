@@ -1,13 +1,13 @@
 import { Brackets, In, type DataSource, type EntityManager } from 'typeorm'
 import type { Role } from '../../shared/auth/roles'
 import type { Page } from '../../shared/schemas/paging'
-import type { CreateProjectBody, PersonRef, ProjectDto, ProjectListQuery, UpdateProjectBody } from '../../shared/schemas/project'
+import type { CreateProjectBody, ProjectDto, ProjectListQuery, UpdateProjectBody } from '../../shared/schemas/project'
 import type { AuthUser } from '../auth/auth-user'
 import { DesignEntity, JurisdictionProfileEntity, ProjectEntity, UserEntity, type Project } from '../entities'
 import { conflict, unprocessable, type FieldError } from '../http/errors'
 import type { AuditService } from './audit-service'
 import type { JurisdictionService } from './jurisdiction-service'
-import { containsPattern, findOwned, pageOf, rethrowUnique, updateAtVersion } from './rows'
+import { containsPattern, findOwned, pageOf, peopleById, rethrowUnique, updateAtVersion } from './rows'
 
 const SORT_COLUMNS = {
   code: 'p.code',
@@ -43,21 +43,16 @@ export class ProjectService {
   /** Project rows as the API shows them, with names of the jurisdiction and the people, in a few queries. */
   async toDtos(rows: Project[], manager: EntityManager = this.db.manager): Promise<ProjectDto[]> {
     if (!rows.length) return []
-    const userIds = [...new Set(rows.flatMap((r) => [r.designerId, r.reviewerId, r.coordinatorId]).filter((v) => v !== null))]
     const jurisdictionIds = [...new Set(rows.map((r) => r.jurisdictionId).filter((v) => v !== null))]
-    const findUsers = async () => (userIds.length ? manager.getRepository(UserEntity).find({ select: { id: true, name: true }, where: { id: In(userIds) } }) : [])
+    const findPeople = () => peopleById(manager, rows.flatMap((r) => [r.designerId, r.reviewerId, r.coordinatorId]))
     const findJurisdictions = async () =>
       jurisdictionIds.length ? manager.getRepository(JurisdictionProfileEntity).find({ select: { id: true, name: true }, where: { id: In(jurisdictionIds) } }) : []
     const findDesigns = () =>
       manager.getRepository(DesignEntity).find({ select: { projectId: true, version: true, evaluationStatus: true, evaluatedVersion: true }, where: { projectId: In(rows.map((r) => r.id)) } })
     // a transaction holds one connection, which takes one query at a time; the pool takes them together
-    const [users, jurisdictions, designs] = manager.queryRunner?.isTransactionActive
-      ? [await findUsers(), await findJurisdictions(), await findDesigns()]
-      : await Promise.all([findUsers(), findJurisdictions(), findDesigns()])
-    const person = (id: string | null): PersonRef | null => {
-      const u = id ? users.find((x) => x.id === id) : undefined
-      return u ? { id: u.id, name: u.name } : null
-    }
+    const [person, jurisdictions, designs] = manager.queryRunner?.isTransactionActive
+      ? [await findPeople(), await findJurisdictions(), await findDesigns()]
+      : await Promise.all([findPeople(), findJurisdictions(), findDesigns()])
     return rows.map((r) => {
       const jurisdiction = jurisdictions.find((j) => j.id === r.jurisdictionId)
       const design = designs.find((d) => d.projectId === r.id)

@@ -3,7 +3,7 @@ import { evaluateDocument } from '../../shared/electrical/evaluate'
 import { diffRevisions } from '../../shared/revisions/diff'
 import type { CreateRevisionBody, PackageJobDto, RevisionDiff, RevisionDto } from '../../shared/schemas/revision'
 import type { AuthUser } from '../auth/auth-user'
-import { DesignEntity, PackageJobEntity, PlanSetRevisionEntity, UserEntity, type PackageJob, type PlanSetRevision } from '../entities'
+import { DesignEntity, PackageJobEntity, PlanSetRevisionEntity, type PackageJob, type PlanSetRevision } from '../entities'
 import { conflict, HttpError, notFound, unprocessable } from '../http/errors'
 import type { PackageQueue } from '../jobs/queue'
 import { blockersMessage, generationBlockers } from '../jobs/readiness'
@@ -13,7 +13,7 @@ import { revisionNarrativePdf } from '../render/narrative-pdf'
 import { StoredFileMissing, type FileStorage } from '../storage'
 import type { AuditService } from './audit-service'
 import type { ProjectService } from './project-service'
-import { findOwned, violatedUniqueIndex } from './rows'
+import { findOwned, peopleById, violatedUniqueIndex } from './rows'
 
 const ACTIVE_JOB_INDEX = 'package_jobs_one_active_key'
 
@@ -28,17 +28,8 @@ export class RevisionService {
     private readonly queue: PackageQueue,
   ) {}
 
-  private async people(ids: (string | null)[], manager: EntityManager) {
-    const wanted = [...new Set(ids.filter((id) => id !== null))]
-    const users = wanted.length ? await manager.getRepository(UserEntity).find({ select: { id: true, name: true }, where: { id: In(wanted) } }) : []
-    return (id: string | null) => {
-      const u = users.find((x) => x.id === id)
-      return u ? { id: u.id, name: u.name } : null
-    }
-  }
-
   private async jobDto(job: PackageJob, manager: EntityManager = this.db.manager): Promise<PackageJobDto> {
-    const person = await this.people([job.requestedBy], manager)
+    const person = await peopleById(manager, [job.requestedBy])
     const revision = job.revisionId ? await manager.getRepository(PlanSetRevisionEntity).findOne({ select: { number: true }, where: { id: job.revisionId } }) : null
     return {
       id: job.id,
@@ -59,7 +50,7 @@ export class RevisionService {
   }
 
   private async revisionDtos(rows: PlanSetRevision[]): Promise<RevisionDto[]> {
-    const person = await this.people(rows.map((r) => r.createdBy), this.db.manager)
+    const person = await peopleById(this.db.manager, rows.map((r) => r.createdBy))
     return rows.map((r) => ({
       id: r.id,
       projectId: r.projectId,
@@ -210,7 +201,7 @@ export class RevisionService {
     const { a, b, diff } = await this.pair(organizationId, projectId, from, to)
     const later = a.number > b.number ? a : b
     const earlier = await this.db.getRepository(PlanSetRevisionEntity).find({ where: { projectId, organizationId }, order: { number: 'ASC' } })
-    const person = await this.people([later.createdBy], this.db.manager)
+    const person = await peopleById(this.db.manager, [later.createdBy])
     const ctx = planSetContext(later.designSnapshot, {
       size: later.sheetSize as SheetSizeName,
       revisions: earlier.filter((r) => r.number <= later.number).map((r) => ({ number: r.number, date: r.createdAt.toISOString().slice(0, 10), description: r.description })),

@@ -1,4 +1,6 @@
-import type { EntityManager, EntityTarget, ObjectLiteral, SelectQueryBuilder } from 'typeorm'
+import { In, type EntityManager, type EntityTarget, type ObjectLiteral, type SelectQueryBuilder } from 'typeorm'
+import type { PersonRef } from '../../shared/schemas/project'
+import { UserEntity } from '../entities'
 import { conflict, notFound, versionConflict, type FieldError } from '../http/errors'
 
 /** Helpers every organisation-owned table shares: id checks, paging and sorting, versioned updates. */
@@ -90,4 +92,14 @@ export function rethrowUnique(err: unknown, indexes: Record<string, FieldError>)
   const field = index ? indexes[index] : undefined
   if (field) throw conflict(`${field.message}`, [field])
   throw err
+}
+
+/** Names of the users among `ids` (one query), as a lookup answering null for none or an unknown id. */
+export async function peopleById(manager: EntityManager, ids: readonly (string | null)[]): Promise<(id: string | null) => PersonRef | null> {
+  const wanted = [...new Set(ids.filter((id) => id !== null))]
+  const users = wanted.length ? await manager.getRepository(UserEntity).find({ select: { id: true, name: true }, where: { id: In(wanted) } }) : []
+  return (id) => {
+    const u = id ? users.find((x) => x.id === id) : undefined
+    return u ? { id: u.id, name: u.name } : null
+  }
 }
