@@ -200,7 +200,7 @@ export class EquipmentService {
   async attachDatasheet(actor: AuthUser, id: string, version: number, file: IncomingFile | undefined): Promise<EquipmentItemDto> {
     return this.db.transaction(async (manager) => {
       await this.getOwned(actor.organizationId, id, manager)
-      const stored = await this.uploads.storePdf(actor, file, 'file', manager)
+      const stored = await this.uploads.store(actor, file, 'file', 'datasheet', manager)
       const row = await updateAtVersion(manager, EquipmentItemEntity, { organizationId: actor.organizationId, id, version }, { datasheetFileId: stored.id }, WHAT, async (current) => ({
         current: await this.toDto(current, manager),
       }))
