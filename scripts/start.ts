@@ -5,18 +5,21 @@ import { superviseWorker, type WorkerProcess } from '../server/jobs/worker-proce
 import { runServer, type RunningServer } from '../server/server'
 import { ClusterError } from './lib/postgres-cluster'
 import { prepareLocalDatabase } from './lib/local-database'
+import { startLocalMail } from './lib/local-mail'
 
 /**
  * `npm start`: PostgreSQL (installed and started when needed), migrations, demo data, the built
  * client, the app + API on http://127.0.0.1:8080, and a plan-set worker beside it (its log lines
- * start with [worker]). Ctrl-C stops the worker, the server and the cluster.
+ * start with [worker]), and a mail catcher on loopback. Ctrl-C stops them all.
  */
 async function main() {
   // when piped (e.g. into tee) Ctrl-C closes the pipe first: shutting down must not die on EPIPE
   process.stdout.on('error', () => {})
   process.stderr.on('error', () => {})
-  const config = loadConfig()
   const log = (line: string) => console.log(`[stringline] ${line}`)
+  const mail = await startLocalMail(loadConfig().dataDir, log)
+  Object.assign(process.env, mail.env)
+  const config = loadConfig()
   const database = await prepareLocalDatabase(config.dataDir, log)
   const app: { running?: RunningServer; worker?: WorkerProcess } = {}
   let stopping = false
@@ -26,6 +29,7 @@ async function main() {
     log('Stopping…')
     await app.worker?.stop().catch(() => {})
     await app.running?.close().catch(() => {})
+    await mail.stop().catch(() => {})
     database.stop()
     log('Stopped.')
     process.exit(0)

@@ -49,6 +49,25 @@ export interface AppConfig {
   faultHangAtStep: string | null
   /** S3-compatible object storage; null: files on local disk under DATA_DIR/files. */
   s3: S3Settings | null
+  /** Public address of the app, without a trailing slash: links in mails and the verification address printed on stamps. */
+  appUrl: string
+  mail: MailConfig
+}
+
+/** Outgoing mail (SMTP through nodemailer) and the development mail catcher. */
+export interface MailConfig {
+  /** null: no SMTP server, mail is logged and dropped. */
+  smtpHost: string | null
+  smtpPort: number
+  /** TLS from the first byte (port 465); otherwise STARTTLS when the server offers it. */
+  smtpSecure: boolean
+  smtpUser: string | null
+  smtpPass: string | null
+  from: string
+  /** Folder the development mail catcher stores into; null: no mailbox page. */
+  mailboxDir: string | null
+  /** pg-boss cron (UTC) of the daily digest. */
+  digestCron: string
 }
 
 export class ConfigError extends Error {}
@@ -142,5 +161,30 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): AppConfig {
     // a fault hook must never reach a real deployment
     faultHangAtStep: nodeEnv === 'test' ? env.STRINGLINE_FAULT_HANG_AT_STEP || null : null,
     s3: objectStorage(env),
+    appUrl: appUrl(env),
+    mail: mailSettings(env),
+  }
+}
+
+function appUrl(env: NodeJS.ProcessEnv): string {
+  const url = (env.APP_URL || `http://${env.HOST ?? '127.0.0.1'}:${env.PORT || 8080}`).replace(/\/+$/, '')
+  if (!URL.canParse(url) || !/^https?:/.test(url)) throw new ConfigError('APP_URL must be an absolute http(s) URL, e.g. https://stringline.example')
+  return url
+}
+
+function mailSettings(env: NodeJS.ProcessEnv): MailConfig {
+  const secure = env.SMTP_SECURE ?? ''
+  if (!['', 'true', 'false'].includes(secure)) throw new ConfigError('SMTP_SECURE must be true or false')
+  const digestCron = env.DIGEST_CRON || '0 7 * * *'
+  if (digestCron.trim().split(/\s+/).length !== 5) throw new ConfigError('DIGEST_CRON must be a cron line of five fields, e.g. "0 7 * * *"')
+  return {
+    smtpHost: env.SMTP_HOST || null,
+    smtpPort: positiveInt(env, 'SMTP_PORT', secure === 'true' ? 465 : 587),
+    smtpSecure: secure === 'true',
+    smtpUser: env.SMTP_USER || null,
+    smtpPass: env.SMTP_PASS || null,
+    from: env.MAIL_FROM || 'Stringline <no-reply@stringline.example>',
+    mailboxDir: env.MAILBOX_DIR ? path.resolve(env.MAILBOX_DIR) : null,
+    digestCron,
   }
 }

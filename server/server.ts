@@ -5,6 +5,7 @@ import type { AppConfig } from './config'
 import { createDataSource } from './db/data-source'
 import { seedDemo } from './demo/seed'
 import { PackageQueue } from './jobs/queue'
+import { createFileStorage } from './storage'
 
 export interface RunningServer {
   server: Server
@@ -19,7 +20,7 @@ export async function runServer(config: AppConfig, databaseUrl: string, options:
   await db.initialize()
   const applied = await db.runMigrations({ transaction: 'each' })
   if (applied.length) logger.info({ migrations: applied.map((m) => m.name) }, 'migrations applied')
-  if (options.demo) logger.info({ demo: await seedDemo(db, config.bcryptCost) }, 'demo data')
+  if (options.demo) logger.info({ demo: await seedDemo(db, config.bcryptCost, createFileStorage(config)) }, 'demo data')
   // this process only sends generations; worker processes (server/worker.ts) run them
   const queue = new PackageQueue(databaseUrl, config.jobs, 'api', (err) => logger.error({ err }, 'queue error'))
   await queue.boss()

@@ -2,6 +2,8 @@ import type { DataSource } from 'typeorm'
 import type { Role } from '../../shared/auth/roles'
 import { hashPassword } from '../auth/passwords'
 import { OrganizationEntity, UserEntity } from '../entities'
+import type { FileStorage } from '../storage'
+import { giveDemoStampCredentials } from './stamp-credentials'
 import { loadDemoWorkspace } from './workspace'
 
 /**
@@ -32,14 +34,20 @@ export const DEMO_USERS: DemoUser[] = [
 
 /**
  * Loads the demo organisation, its users and its workspace (jurisdiction, equipment library,
- * projects with designs) once; later runs find them and change nothing. A database seeded before
+ * projects with designs) once; later runs find them and change nothing. With `storage`, the demo
+ * reviewer also gets a demo stamp image and signing certificate. A database seeded before
  * the workspace existed gets the workspace alone.
  */
-export async function seedDemo(db: DataSource, bcryptCost: number): Promise<'created' | 'present'> {
+export async function seedDemo(db: DataSource, bcryptCost: number, storage?: FileStorage): Promise<'created' | 'present'> {
   return db.transaction(async (manager) => {
     const orgs = manager.getRepository(OrganizationEntity)
+    const reviewer = DEMO_USERS.find((u) => u.role === 'reviewer')!
+    const stampCredentials = () => (storage ? giveDemoStampCredentials(manager, storage, reviewer.email, DEMO_PASSWORD) : undefined)
     const existing = await orgs.findOneBy({ slug: DEMO_ORGANIZATION.slug })
-    if (existing) return loadDemoWorkspace(manager, existing.id)
+    if (existing) {
+      await stampCredentials()
+      return loadDemoWorkspace(manager, existing.id)
+    }
     const org = await orgs.save(DEMO_ORGANIZATION)
     const passwordHash = await hashPassword(DEMO_PASSWORD, bcryptCost)
     await manager.getRepository(UserEntity).save(
@@ -55,6 +63,7 @@ export async function seedDemo(db: DataSource, bcryptCost: number): Promise<'cre
         licenceExpiry: u.licence?.expiry ?? null,
       })),
     )
+    await stampCredentials()
     await loadDemoWorkspace(manager, org.id)
     return 'created'
   })

@@ -8,7 +8,10 @@ import { PlanSetRevisionEntity } from './plan-set-revision'
 import { ProjectEntity } from './project'
 import { ProjectTransitionEntity } from './project-transition'
 import { RefreshTokenEntity } from './refresh-token'
+import { ReviewCommentEntity, ReviewReplyEntity } from './review-comment'
+import { RevisionStampEntity } from './revision-stamp'
 import { StoredFileEntity } from './stored-file'
+import { CorrectionLetterEntity, SubmissionEntity } from './submission'
 import { UserEntity } from './user'
 
 export {
@@ -22,7 +25,12 @@ export {
   ProjectEntity,
   ProjectTransitionEntity,
   RefreshTokenEntity,
+  ReviewCommentEntity,
+  ReviewReplyEntity,
+  RevisionStampEntity,
   StoredFileEntity,
+  SubmissionEntity,
+  CorrectionLetterEntity,
   UserEntity,
 }
 export type { AuditEvent } from './audit-event'
@@ -35,7 +43,10 @@ export type { PlanSetRevision } from './plan-set-revision'
 export type { Project } from './project'
 export type { ProjectTransition } from './project-transition'
 export type { RefreshToken } from './refresh-token'
+export type { ReviewComment, ReviewReply } from './review-comment'
+export type { RevisionStamp } from './revision-stamp'
 export type { StoredFile } from './stored-file'
+export type { CorrectionItem, CorrectionLetter, Submission } from './submission'
 export type { User } from './user'
 
 export const ENTITIES = [
@@ -51,4 +62,9 @@ export const ENTITIES = [
   PlanSetRevisionEntity,
   PackageJobEntity,
   ProjectTransitionEntity,
+  RevisionStampEntity,
+  SubmissionEntity,
+  CorrectionLetterEntity,
+  ReviewCommentEntity,
+  ReviewReplyEntity,
 ]

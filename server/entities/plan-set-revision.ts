@@ -3,6 +3,7 @@ import type { Evaluation } from '../../shared/electrical/evaluate'
 import type { NecEdition, Status } from '../../shared/electrical/types'
 import type { DesignDocument } from '../../shared/schemas/design'
 import type { PackageFileDto } from '../../shared/schemas/revision'
+import type { StampBox } from '../render/plan-set'
 
 /**
  * One published plan set of a project: the design and evaluation it was drawn from and the package
@@ -28,6 +29,8 @@ export interface PlanSetRevision {
   /** The files of the zip, each also kept in storage under its SHA-256. */
   files: PackageFileDto[]
   sheetCount: number
+  /** Where each sheet's stamp box is in plan-set.pdf (empty for revisions published before they were recorded). */
+  stampBoxes: StampBox[]
   createdBy: string | null
   createdAt: Date
 }
@@ -53,6 +56,7 @@ export const PlanSetRevisionEntity = new EntitySchema<PlanSetRevision>({
     packageBytes: { name: 'package_bytes', type: 'integer' },
     files: { type: 'jsonb' },
     sheetCount: { name: 'sheet_count', type: 'integer' },
+    stampBoxes: { name: 'stamp_boxes', type: 'jsonb' },
     createdBy: { name: 'created_by', type: 'uuid', nullable: true },
     createdAt: { name: 'created_at', type: 'timestamptz', createDate: true },
   },

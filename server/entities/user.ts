@@ -1,5 +1,6 @@
 import { EntitySchema } from 'typeorm'
 import type { Role } from '../../shared/auth/roles'
+import type { NotificationCategory } from '../../shared/schemas/notifications'
 
 export interface User {
   id: string
@@ -14,6 +15,16 @@ export interface User {
   licenceNumber: string | null
   licenceRegion: string | null
   licenceExpiry: string | null
+  /** Reviewer's stamp image (PNG in stored_files) and PKCS#12 signing certificate; its password is never kept. */
+  stampImageFileId: string | null
+  certificateFileId: string | null
+  certificateCommonName: string | null
+  certificateNotAfter: Date | null
+  /** SHA-256 of the certificate (DER), lower-case hex. */
+  certificateFingerprint: string | null
+  certificateDemo: boolean | null
+  /** E-mail categories the user switched off. */
+  notificationOptOuts: NotificationCategory[]
   createdAt: Date
   updatedAt: Date
   version: number
@@ -33,6 +44,13 @@ export const UserEntity = new EntitySchema<User>({
     licenceNumber: { name: 'licence_number', type: 'text', nullable: true },
     licenceRegion: { name: 'licence_region', type: 'text', nullable: true },
     licenceExpiry: { name: 'licence_expiry', type: 'date', nullable: true },
+    stampImageFileId: { name: 'stamp_image_file_id', type: 'uuid', nullable: true },
+    certificateFileId: { name: 'certificate_file_id', type: 'uuid', nullable: true },
+    certificateCommonName: { name: 'certificate_common_name', type: 'text', nullable: true },
+    certificateNotAfter: { name: 'certificate_not_after', type: 'timestamptz', nullable: true },
+    certificateFingerprint: { name: 'certificate_fingerprint', type: 'text', nullable: true },
+    certificateDemo: { name: 'certificate_demo', type: 'boolean', nullable: true },
+    notificationOptOuts: { name: 'notification_opt_outs', type: 'text', array: true, default: () => "'{}'" },
     createdAt: { name: 'created_at', type: 'timestamptz', createDate: true },
     updatedAt: { name: 'updated_at', type: 'timestamptz', updateDate: true },
     version: { type: 'integer', version: true },

@@ -84,7 +84,7 @@ export function mountRoutes(
         res.json(result)
       }
     }
-    router[def.method](def.path, ...guard, ...bodyParsers, ...(def.before ?? []), handler)
+    router[def.method](def.path, ...guard, ...(def.beforeBody ?? []), ...bodyParsers, ...(def.before ?? []), handler)
   }
   return router
 }

@@ -30,3 +30,14 @@ export function loginRateLimits(config: AppConfig): RequestHandler[] {
   })
   return [perIp, perAccount]
 }
+
+/** Public look-ups (stamp verification): per client address, so nobody can walk the verification ids or flood the checker. */
+export function publicLookupRateLimit(limit = 120): RequestHandler {
+  return rateLimit({
+    windowMs: WINDOW_MS,
+    limit,
+    standardHeaders: 'draft-8',
+    legacyHeaders: false,
+    handler: tooMany('Too many verification requests from this address; wait 15 minutes and try again'),
+  })
+}

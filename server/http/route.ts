@@ -63,8 +63,10 @@ export interface RouteDef<B = unknown, Q = unknown, P = unknown> {
   response?: z.ZodType
   /** Set when the route takes a file (multipart/form-data); the file is `ctx.file`. */
   upload?: UploadSpec
-  /** Extra middleware run before validation, e.g. rate limits. */
+  /** Extra middleware run before validation, after the body is read (e.g. limits that look at the body). */
   before?: RequestHandler[]
+  /** Middleware run before the body is read, e.g. a rate limit on a public upload. */
+  beforeBody?: RequestHandler[]
   /** Returns the JSON body (200), a `Reply`, a `Download`, or undefined (204). */
   handler: (ctx: RouteContext<B, Q, P>) => unknown
 }

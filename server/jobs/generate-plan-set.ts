@@ -192,6 +192,7 @@ export class PlanSetGenerator {
         packageBytes: built.zip.length,
         files,
         sheetCount: built.sheetCount,
+        stampBoxes: built.stampBoxes,
         createdBy: job.requestedBy,
         createdAt: created,
       })

@@ -21,7 +21,7 @@ export function connectionStringOf(db: DataSource): string {
 }
 
 /** Lets pg-boss write inside one of our transactions. */
-function inTransaction(manager: EntityManager): PgBoss.Db {
+export function inTransaction(manager: EntityManager): PgBoss.Db {
   return {
     executeSql: async (text, values) => {
       const result = await manager.queryRunner!.query(text, values, true)
@@ -57,7 +57,8 @@ export class PackageQueue {
       max: 3,
       supervise: this.role === 'worker',
       maintenanceIntervalSeconds: this.jobs.maintenanceSeconds,
-      schedule: false,
+      // cron schedules (the daily digest) are kept by workers only
+      schedule: this.role === 'worker',
     })
     boss.on('error', this.onError)
     await boss.start()

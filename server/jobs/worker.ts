@@ -1,8 +1,11 @@
 import type { Logger } from 'pino'
 import type { DataSource } from 'typeorm'
 import type { AppConfig } from '../config'
+import { Mailer } from '../mail/mailer'
+import { createServices } from '../services'
 import { createFileStorage } from '../storage'
 import { PlanSetGenerator } from './generate-plan-set'
+import { DIGEST_QUEUE, MAIL_QUEUE, MailQueue, type MailJobData } from './mail-queue'
 import { connectionStringOf, GENERATE_QUEUE, LOST_GENERATIONS_QUEUE, PackageQueue, type GenerateJobData } from './queue'
 
 export interface RunningWorker {
@@ -12,7 +15,8 @@ export interface RunningWorker {
 
 /**
  * Takes plan-set generations off the queue, one at a time per worker, and marks the jobs pg-boss
- * gave up on as failed. Several workers (processes) may run against one database.
+ * gave up on as failed; also sends the queued mails and keeps the daily digest schedule. Several
+ * workers (processes) may run against one database.
  */
 export async function startPackageWorker(deps: { db: DataSource; config: AppConfig; logger: Logger }): Promise<RunningWorker> {
   const { db, config, logger } = deps
@@ -28,6 +32,25 @@ export async function startPackageWorker(deps: { db: DataSource; config: AppConf
   await boss.work<GenerateJobData>(LOST_GENERATIONS_QUEUE, { batchSize: 1, pollingIntervalSeconds }, async ([job]) => {
     if (job) await generator.markLost(job.data.packageJobId)
   })
-  logger.info({ queue: GENERATE_QUEUE }, 'plan-set worker is waiting for jobs')
-  return { stop: () => queue.stop(true) }
+  const mailer = new Mailer(config.mail, logger)
+  const notifications = createServices(db, config, queue).notifications
+  await new MailQueue(queue, config.jobs).boss()
+  await boss.work<MailJobData>(MAIL_QUEUE, { batchSize: 1, pollingIntervalSeconds }, async ([job]) => {
+    if (!job) return
+    const outcome = await notifications.deliver(job.data, mailer)
+    logger.info({ kind: job.data.kind, recipientId: job.data.recipientId, outcome }, 'mail job done')
+  })
+  // pg-boss runs a schedule once per slot however many workers keep it
+  await boss.schedule(DIGEST_QUEUE, config.mail.digestCron, {}, { tz: 'UTC' })
+  await boss.work(DIGEST_QUEUE, { batchSize: 1, pollingIntervalSeconds }, async () => {
+    const queued = await notifications.sendDigest(new Date().toISOString().slice(0, 10))
+    logger.info({ queued }, 'daily digest queued')
+  })
+  logger.info({ queues: [GENERATE_QUEUE, MAIL_QUEUE] }, 'worker is waiting for jobs')
+  return {
+    stop: async () => {
+      await queue.stop(true)
+      mailer.close()
+    },
+  }
 }

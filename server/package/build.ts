@@ -6,7 +6,7 @@
 import { PACKAGE_FILE_NAMES, PACKAGE_STEPS, type PackageStep } from '../../shared/schemas/revision'
 import { planSetContext, sheetToSvg } from '../render'
 import { labelsPdf } from '../render/labels-pdf'
-import { planSetPdf, type PlanSetInput } from '../render/plan-set'
+import { planSetPdf, type PlanSetInput, type StampBox } from '../render/plan-set'
 import { calculationsCsv } from './calculations-csv'
 import { buildManifest, sha256Hex, type PackageManifest } from './manifest'
 import { stackSvgParts } from './single-line-file'
@@ -33,6 +33,8 @@ export interface BuiltPackage {
   /** In packing order, manifest.json last. */
   files: BuiltFile[]
   sheetCount: number
+  /** Where each sheet's stamp box is in plan-set.pdf. */
+  stampBoxes: StampBox[]
 }
 
 const MEDIA_TYPES: Record<PackageFileName, string> = {
@@ -47,7 +49,8 @@ const MEDIA_TYPES: Record<PackageFileName, string> = {
 
 export const packageFileName = (projectCode: string, revision: number): string => `${projectCode}_rev${String(revision).padStart(2, '0')}.zip`
 
-const json = (value: unknown) => Buffer.from(`${JSON.stringify(value, null, 2)}\n`, 'utf8')
+/** A JSON file of the package: two-space indented, ending in a newline. */
+export const jsonFile = (value: unknown) => Buffer.from(`${JSON.stringify(value, null, 2)}\n`, 'utf8')
 
 /** Steps reported forward only: a step the plan set already reported (e.g. attachments) is not repeated. */
 function forwardOnly(onStep?: (step: PackageStep) => void): (step: PackageStep) => void {
@@ -80,17 +83,17 @@ export async function buildPackage(input: PackageInput, onStep?: (step: PackageS
     'plan-set.pdf': Buffer.from(planSet.pdf),
     'single-line.svg': Buffer.from(singleLine, 'utf8'),
     'calculations.csv': Buffer.from(calculationsCsv(evaluation), 'utf8'),
-    'calculations.json': json(evaluation),
+    'calculations.json': jsonFile(evaluation),
     'labels.pdf': Buffer.from(labels),
-    'design.json': json(doc),
+    'design.json': jsonFile(doc),
   }
   const listed = PACKAGE_FILE_NAMES.filter((n) => n !== 'manifest.json').map((name) => ({ name, bytes: contents[name as keyof typeof contents], mediaType: MEDIA_TYPES[name] }))
   const manifest = buildManifest({
     productVersion: input.productVersion, engineVersion: evaluation.engineVersion, project: doc.project,
     revision: input.revision, description: input.description, created: input.created, files: listed,
   })
-  const files: BuiltFile[] = [...listed, { name: 'manifest.json' as const, bytes: json(manifest), mediaType: MEDIA_TYPES['manifest.json'] }]
+  const files: BuiltFile[] = [...listed, { name: 'manifest.json' as const, bytes: jsonFile(manifest), mediaType: MEDIA_TYPES['manifest.json'] }]
     .map((f) => ({ ...f, sha256: sha256Hex(f.bytes) }))
   const zip = await zipEntries(files, input.created)
-  return { zip, fileName: packageFileName(doc.project.code, input.revision), manifest, files, sheetCount: planSet.sheets.length }
+  return { zip, fileName: packageFileName(doc.project.code, input.revision), manifest, files, sheetCount: planSet.sheets.length, stampBoxes: planSet.stampBoxes }
 }

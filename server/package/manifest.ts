@@ -16,10 +16,26 @@ export interface PackageManifest {
   /** ISO 8601, UTC. */
   created: string
   /** Filled when a licensed reviewer stamps the revision; a generated package is never stamped. */
-  stampedBy: null
+  stampedBy: ManifestStamp | null
   caution: string
   /** Every file of the zip except manifest.json itself, in packing order. */
   files: PackageFile[]
+}
+
+/** Who stamped the package and with what, as the stamped package's manifest records it. */
+export interface ManifestStamp {
+  name: string
+  licenceNumber: string
+  licenceRegion: string
+  /** ISO 8601, UTC. */
+  stampedAt: string
+  verificationId: string
+  /** Where the stamp can be checked. */
+  verifyUrl: string
+  /** SHA-256 of the signing certificate (DER), lower-case hex. */
+  certificateSha256: string
+  /** Signed with a generated demo certificate: not for permit use. */
+  demoCertificate: boolean
 }
 
 export const sha256Hex = (bytes: Uint8Array): string => createHash('sha256').update(bytes).digest('hex')

@@ -42,7 +42,7 @@ export interface TextItem {
 /** Items drawn together; `data` becomes data-* attributes in SVG (device and run ids). */
 export interface GroupItem {
   kind: 'group'
-  role: 'device' | 'wire' | 'tag' | 'frame' | 'table' | 'note'
+  role: 'device' | 'wire' | 'tag' | 'frame' | 'table' | 'note' | 'stamp-box'
   data: Record<string, string>
   /** Children drawn in their own units, scaled by `scale` then moved by (dx, dy) on the sheet. */
   transform?: { dx: number; dy: number; scale: number }
@@ -83,4 +83,21 @@ export function textsOf(items: DrawItem[]): TextItem[] {
   }
   walk(items)
   return out
+}
+
+/** The box the reviewer's stamp goes into on a framed sheet (the frame marks it), or null for a sheet without one. */
+export function stampBoxOf(sheet: Sheet): Box | null {
+  const find = (list: DrawItem[]): Box | null => {
+    for (const item of list) {
+      if (item.kind !== 'group') continue
+      if (item.role === 'stamp-box') {
+        const rect = item.items.find((i) => i.kind === 'rect')
+        if (rect?.kind === 'rect') return rect.box
+      }
+      const inner = find(item.items)
+      if (inner) return inner
+    }
+    return null
+  }
+  return find(sheet.items)
 }

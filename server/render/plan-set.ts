@@ -4,11 +4,11 @@
  * pdf-lib cannot read becomes one framed placeholder page saying which file and why.
  */
 import fontkit from '@pdf-lib/fontkit'
-import { EncryptedPDFError, PDFDocument, rgb } from 'pdf-lib'
+import { EncryptedPDFError, PDFDocument, rgb, type PDFPage } from 'pdf-lib'
 import type { Evaluation } from '../../shared/electrical'
 import type { DesignDocument } from '../../shared/schemas/design'
 import { fontBytes, printable, text, truncate, wrap } from './fonts'
-import type { DrawItem, Sheet } from './model'
+import { stampBoxOf, type DrawItem, type Sheet } from './model'
 import { PLAIN_SHAPING, setMetadata, sheetsToPdf } from './pdf'
 import { DEFAULT_SHEET_SIZE, sheetSize, type SheetSizeName } from './sheet-sizes'
 import { arrayLayoutSheets } from './sheets/e101-array-layout'
@@ -183,7 +183,26 @@ async function mergeDatasheets(out: PDFDocument, read: Awaited<ReturnType<typeof
  * package takes the single-line SVG from them). `onStep` hears when drawing starts and when the
  * datasheets are merged.
  */
-export async function planSetPdf(input: PlanSetInput, onStep?: (step: 'drawing' | 'attachments') => void): Promise<{ pdf: Uint8Array; sheets: Sheet[]; pageCount: number }> {
+/** Where the reviewer's stamp goes on one page: PDF user space (points, origin bottom left), page index from 0. */
+export interface StampBox { page: number; x: number; y: number; width: number; height: number }
+
+/** The stamp box of each framed sheet at the page it was printed on. */
+function stampBoxes(sheets: readonly Sheet[], pageOfSheet: (index: number) => number): StampBox[] {
+  return sheets.flatMap((sheet, k) => {
+    const box = stampBoxOf(sheet)
+    return box ? [{ page: pageOfSheet(k), x: box.x, y: sheet.heightPt - box.y - box.height, width: box.width, height: box.height }] : []
+  })
+}
+
+export interface PlanSetPdf {
+  pdf: Uint8Array
+  sheets: Sheet[]
+  pageCount: number
+  /** Every sheet's stamp box, for stamping the published file later. */
+  stampBoxes: StampBox[]
+}
+
+export async function planSetPdf(input: PlanSetInput, onStep?: (step: 'drawing' | 'attachments') => void): Promise<PlanSetPdf> {
   const attachments = input.attachments ?? []
   const read = await Promise.all(attachments.map(readDatasheet))
   const outcomes: AttachmentOutcome[] = read.map((r) => ('error' in r ? { error: r.error } : { pages: r.pages }))
@@ -194,18 +213,22 @@ export async function planSetPdf(input: PlanSetInput, onStep?: (step: 'drawing' 
   const merged = read.filter((r) => 'pdf' in r).length
   if (sheets.length <= SHEETS_PER_DOCUMENT && merged === 0) {
     const pdf = await sheetsToPdf(sheets, metadata)
-    return { pdf, sheets, pageCount: sheets.length }
+    return { pdf, sheets, pageCount: sheets.length, stampBoxes: stampBoxes(sheets, (k) => k) }
   }
 
   // pdf-lib holds every drawing operator of a document until it is saved: a large set is drawn a
   // batch of sheets at a time and the saved pages copied into one document
   const out = await PDFDocument.create()
+  const sheetPages: PDFPage[] = []
   for (let start = 0; start < sheets.length; start += SHEETS_PER_DOCUMENT) {
     const batch = await PDFDocument.load(await sheetsToPdf(sheets.slice(start, start + SHEETS_PER_DOCUMENT), metadata), { updateMetadata: false })
-    for (const page of await out.copyPages(batch, batch.getPageIndices())) out.addPage(page)
+    for (const page of await out.copyPages(batch, batch.getPageIndices())) sheetPages.push(out.addPage(page))
   }
   if (merged > 0) await mergeDatasheets(out, read, refs, mainSheets, p.code, onStep)
   setMetadata(out, metadata)
+  // datasheet pages went in between the sheets: each sheet's page is found where it ended up
+  const pages = out.getPages()
+  const boxes = stampBoxes(sheets, (k) => pages.indexOf(sheetPages[k]!))
   const pdf = await out.save()
-  return { pdf, sheets, pageCount: out.getPageCount() }
+  return { pdf, sheets, pageCount: out.getPageCount(), stampBoxes: boxes }
 }

@@ -8,8 +8,12 @@ import { docsRoutes } from './docs'
 import { equipmentRoutes } from './equipment'
 import { healthRoutes } from './health'
 import { jurisdictionRoutes } from './jurisdictions'
+import { notificationRoutes } from './notifications'
 import { projectRoutes } from './projects'
+import { reviewRoutes } from './review'
 import { revisionRoutes } from './revisions'
+import { stampRoutes } from './stamps'
+import { submissionRoutes } from './submissions'
 import { userRoutes } from './users'
 import { workflowRoutes } from './workflow'
 
@@ -27,6 +31,10 @@ export function buildRoutes(config: AppConfig): AnyRoute[] {
     ...designRoutes,
     ...revisionRoutes,
     ...workflowRoutes,
+    ...notificationRoutes,
+    ...stampRoutes,
+    ...reviewRoutes,
+    ...submissionRoutes,
   ]
   table.push(...docsRoutes(table))
   return table

@@ -1,5 +1,6 @@
 import type { DataSource } from 'typeorm'
 import type { AppConfig } from '../config'
+import { MailQueue } from '../jobs/mail-queue'
 import { connectionStringOf, PackageQueue } from '../jobs/queue'
 import { createFileStorage } from '../storage'
 import { AuditService } from './audit-service'
@@ -8,8 +9,12 @@ import { DesignService } from './design-service'
 import { EquipmentService } from './equipment-service'
 import { HealthService } from './health-service'
 import { JurisdictionService } from './jurisdiction-service'
+import { NotificationService } from './notification-service'
 import { ProjectService } from './project-service'
+import { ReviewService } from './review-service'
 import { RevisionService } from './revision-service'
+import { StampService } from './stamp-service'
+import { SubmissionService } from './submission-service'
 import { UploadService } from './upload-service'
 import { UserService } from './user-service'
 import { WorkflowService } from './workflow-service'
@@ -27,6 +32,10 @@ export interface Services {
   equipment: EquipmentService
   revisions: RevisionService
   workflow: WorkflowService
+  notifications: NotificationService
+  stamps: StampService
+  reviews: ReviewService
+  submissions: SubmissionService
 }
 
 /** `queue` is where generations are sent; by default one is made over the same database, started on first use. */
@@ -38,6 +47,7 @@ export function createServices(db: DataSource, config: AppConfig, queue = new Pa
   const storage = createFileStorage(config)
   const uploads = new UploadService(db, storage)
   const workflow = new WorkflowService(db, audit, projects)
+  const submissions = new SubmissionService(db, audit, projects, uploads, workflow)
   return {
     audit,
     users,
@@ -50,5 +60,9 @@ export function createServices(db: DataSource, config: AppConfig, queue = new Pa
     equipment: new EquipmentService(db, audit, uploads, config),
     revisions: new RevisionService(db, audit, projects, storage, queue),
     workflow,
+    notifications: new NotificationService(db, config, new MailQueue(queue, config.jobs), workflow, submissions),
+    stamps: new StampService(db, audit, uploads, storage, config, workflow),
+    reviews: new ReviewService(db, audit, projects, workflow),
+    submissions,
   }
 }

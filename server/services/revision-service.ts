@@ -3,7 +3,7 @@ import { evaluateDocument } from '../../shared/electrical/evaluate'
 import { diffRevisions } from '../../shared/revisions/diff'
 import type { CreateRevisionBody, PackageJobDto, RevisionDiff, RevisionDto } from '../../shared/schemas/revision'
 import type { AuthUser } from '../auth/auth-user'
-import { DesignEntity, PackageJobEntity, PlanSetRevisionEntity, type PackageJob, type PlanSetRevision } from '../entities'
+import { DesignEntity, PackageJobEntity, PlanSetRevisionEntity, RevisionStampEntity, type PackageJob, type PlanSetRevision, type RevisionStamp } from '../entities'
 import { conflict, HttpError, notFound, unprocessable } from '../http/errors'
 import type { PackageQueue } from '../jobs/queue'
 import { blockersMessage, generationBlockers } from '../jobs/readiness'
@@ -17,6 +17,13 @@ import { findOwned, peopleById, violatedUniqueIndex } from './rows'
 
 const ACTIVE_JOB_INDEX = 'package_jobs_one_active_key'
 
+const stampDto = (stamp: RevisionStamp | undefined): RevisionDto['stamp'] =>
+  stamp
+    ? {
+        verificationId: stamp.verificationId, stampedAt: stamp.stampedAt.toISOString(), holderName: stamp.holderName, licenceNumber: stamp.licenceNumber,
+        licenceRegion: stamp.licenceRegion, signedPdfSha256: stamp.signedPdfSha256, demo: stamp.certificateDemo,
+      }
+    : null
 
 /** Published plan sets of a project, and the background jobs that make them. */
 export class RevisionService {
@@ -51,24 +58,31 @@ export class RevisionService {
 
   private async revisionDtos(rows: PlanSetRevision[]): Promise<RevisionDto[]> {
     const person = await peopleById(this.db.manager, rows.map((r) => r.createdBy))
-    return rows.map((r) => ({
-      id: r.id,
-      projectId: r.projectId,
-      number: r.number,
-      description: r.description,
-      createdAt: r.createdAt.toISOString(),
-      createdBy: person(r.createdBy),
-      designVersion: r.designVersion,
-      engineVersion: r.engineVersion,
-      necEdition: r.necEdition,
-      evaluationStatus: r.evaluationStatus,
-      sheetSize: r.sheetSize,
-      packageName: r.packageName,
-      packageBytes: r.packageBytes,
-      packageSha256: r.packageSha256,
-      files: r.files,
-      sheetCount: r.sheetCount,
-    }))
+    const stamps = rows.length ? await this.db.getRepository(RevisionStampEntity).findBy({ revisionId: In(rows.map((r) => r.id)) }) : []
+    return rows.map((r) => {
+      const stamp = stamps.find((st) => st.revisionId === r.id)
+      // what downloads serve: the stamped package once there is one
+      const issued = stamp ?? r
+      return {
+        id: r.id,
+        projectId: r.projectId,
+        number: r.number,
+        description: r.description,
+        createdAt: r.createdAt.toISOString(),
+        createdBy: person(r.createdBy),
+        designVersion: r.designVersion,
+        engineVersion: r.engineVersion,
+        necEdition: r.necEdition,
+        evaluationStatus: r.evaluationStatus,
+        sheetSize: r.sheetSize,
+        packageName: issued.packageName,
+        packageBytes: issued.packageBytes,
+        packageSha256: issued.packageSha256,
+        files: issued.files,
+        sheetCount: r.sheetCount,
+        stamp: stampDto(stamp),
+      }
+    })
   }
 
   private activeJob(projectId: string, manager: EntityManager = this.db.manager) {
@@ -173,13 +187,19 @@ export class RevisionService {
     }
   }
 
-  async packageOf(organizationId: string, projectId: string, number: number): Promise<{ bytes: Buffer; fileName: string }> {
+  /** The package as it stands: the stamped one (signed plan set, manifest naming the stamp) once stamped. */
+  private async issued(organizationId: string, projectId: string, number: number): Promise<Pick<PlanSetRevision, 'packageSha256' | 'packageName' | 'files'>> {
     const row = await this.revision(organizationId, projectId, number)
+    return (await this.db.getRepository(RevisionStampEntity).findOneBy({ revisionId: row.id })) ?? row
+  }
+
+  async packageOf(organizationId: string, projectId: string, number: number): Promise<{ bytes: Buffer; fileName: string }> {
+    const row = await this.issued(organizationId, projectId, number)
     return { bytes: await this.stored(row.packageSha256), fileName: row.packageName }
   }
 
   async fileOf(organizationId: string, projectId: string, number: number, name: PackageFileName): Promise<{ bytes: Buffer; fileName: string; mediaType: string }> {
-    const row = await this.revision(organizationId, projectId, number)
+    const row = await this.issued(organizationId, projectId, number)
     const file = row.files.find((f) => f.name === name)
     if (!file) throw notFound(`File ${name} of revision ${number}`)
     return { bytes: await this.stored(file.sha256), fileName: file.name, mediaType: file.mediaType }

@@ -1,7 +1,8 @@
 import { In, type DataSource, type EntityManager } from 'typeorm'
 import type { ProjectStatus } from '../../shared/schemas/project'
+import { isPaperworkAction } from '../../shared/schemas/submission'
 import type { TimelineEntryDto, TransitionBody, TransitionResultDto } from '../../shared/schemas/workflow'
-import { ACTION_RULES, decideTransition, licenceProblems, STAMP_LOCKED_STATUSES, STATUS_LABELS, type TimelineEvent } from '../../shared/workflow'
+import { ACTION_RULES, decideTransition, licenceProblems, STAMP_LOCKED_STATUSES, STATUS_LABELS, type TimelineEvent, type WorkflowAction } from '../../shared/workflow'
 import type { AuthUser } from '../auth/auth-user'
 import { DesignEntity, PlanSetRevisionEntity, ProjectEntity, ProjectTransitionEntity, UserEntity, type PlanSetRevision, type Project, type ProjectTransition } from '../entities'
 import { conflict, unprocessable, versionConflict } from '../http/errors'
@@ -11,6 +12,43 @@ import { updateAtVersion } from './rows'
 
 const WHAT = 'Project'
 const todayUtc = () => new Date().toISOString().slice(0, 10)
+
+/** A step as the services that act on it see it. */
+export interface StepContext {
+  actor: AuthUser
+  project: Project
+  /** The revision the workflow carries (under review, stamped, submitted …), if any. */
+  revision: PlanSetRevision | null
+  body: TransitionBody
+}
+
+/**
+ * What a service does when a step is taken, beyond moving the status: stamping signs the plan set,
+ * the submission steps record dates and references. `prepare` runs before the transaction (slow work,
+ * files put in content-addressed storage, so an abandoned step leaves nothing half written); `apply`
+ * runs inside it after the checks, with what `prepare` returned.
+ */
+export interface StepEffect<Prepared = unknown> {
+  prepare?(step: StepContext): Promise<Prepared>
+  apply(manager: EntityManager, step: StepContext & { prepared: Prepared; to: ProjectStatus; transitionId: string }): Promise<void>
+}
+
+/** A timeline row just written, inside its transaction: notifications enqueue their mail here, so mail goes only for committed steps. */
+export interface RecordedStep {
+  organizationId: string
+  projectId: string
+  actorId: string
+  event: TimelineEvent
+  from: ProjectStatus
+  to: ProjectStatus
+  note: string | null
+  revision: { id: string; number: number } | null
+  transitionId: string
+}
+export type StepListener = (manager: EntityManager, step: RecordedStep) => Promise<void>
+
+/** A precondition another service owns (open review comments, say): throws the 409 or 422 that refuses the step. */
+export type StepGuard = (manager: EntityManager, step: StepContext) => Promise<void>
 
 /**
  * Moves projects through the permit-set workflow: the state machine of shared/workflow decides,
@@ -26,33 +64,72 @@ export class WorkflowService {
     private readonly today: () => string = todayUtc,
   ) {}
 
-  async transition(actor: AuthUser, projectId: string, body: TransitionBody): Promise<TransitionResultDto> {
-    return this.db.transaction(async (manager) => {
-      const project = await this.projects.getOwned(actor.organizationId, projectId, manager)
-      if (project.version !== body.version) throw versionConflict(WHAT, project, { current: await this.projects.toDto(project, manager) })
-      if (project.archivedAt) throw conflict('This project is archived; restore it before moving it on')
-      const decision = decideTransition(project.status, body.action, actor.role)
-      if (!decision.allowed) throw conflict(decision.reason, [{ field: 'action', message: decision.reason }])
-      if (actor.role === 'reviewer' && project.reviewerId && project.reviewerId !== actor.id) {
-        // the electrician named on the project judges it; reassign the project to hand it to another
-        throw conflict('Another reviewing electrician is assigned to this project; reassign it before taking this step', [{ field: 'reviewerId', message: 'is another reviewer' }])
-      }
-      const note = body.note || null
-      if (ACTION_RULES[body.action].noteRequired && !note) {
-        throw unprocessable(`“${ACTION_RULES[body.action].label}” needs a note saying why`, [{ field: 'note', message: 'is required for this step' }])
-      }
-      if (body.revisionNumber !== undefined && body.action !== 'request_review') {
-        throw unprocessable('Only a request for review names a revision', [{ field: 'revisionNumber', message: `is not taken by ${body.action}` }])
-      }
-      const revision = body.action === 'request_review'
-        ? await this.revisionForReview(manager, project, body.revisionNumber)
-        : await this.revisionInWorkflow(manager, project.id)
-      if (body.action === 'approve_and_stamp') await this.approveAndStamp(manager, actor, project, revision)
+  private readonly effects = new Map<WorkflowAction, StepEffect>()
+  private readonly listeners: StepListener[] = []
+  private readonly guards = new Map<WorkflowAction, StepGuard[]>()
 
-      const moved = await updateAtVersion(manager, ProjectEntity, { organizationId: actor.organizationId, id: project.id, version: body.version }, { status: decision.to }, WHAT, async (current) => ({
+  /** Registers what a service does on `action` (one service per action). */
+  onStep<P>(action: WorkflowAction, effect: StepEffect<P>): void {
+    if (this.effects.has(action)) throw new Error(`a step effect for ${action} is already registered`)
+    this.effects.set(action, effect as StepEffect)
+  }
+
+  /** Registers a precondition of `action`, checked after the workflow's own checks, before any slow work and again in the transaction. */
+  onGuard(action: WorkflowAction, guard: StepGuard): void {
+    this.guards.set(action, [...(this.guards.get(action) ?? []), guard])
+  }
+
+  /** Registers a listener told of every timeline row written, inside the writing transaction. */
+  onRecorded(listener: StepListener): void {
+    this.listeners.push(listener)
+  }
+
+  /** The checks that need no lock, in the order the transaction makes them again: 409 and 422 come before any slow work. */
+  private async check(manager: EntityManager, actor: AuthUser, projectId: string, body: TransitionBody) {
+    const project = await this.projects.getOwned(actor.organizationId, projectId, manager)
+    if (project.version !== body.version) throw versionConflict(WHAT, project, { current: await this.projects.toDto(project, manager) })
+    if (project.archivedAt) throw conflict('This project is archived; restore it before moving it on')
+    const decision = decideTransition(project.status, body.action, actor.role)
+    if (!decision.allowed) throw conflict(decision.reason, [{ field: 'action', message: decision.reason }])
+    if (actor.role === 'reviewer' && project.reviewerId && project.reviewerId !== actor.id) {
+      // the electrician named on the project judges it; reassign the project to hand it to another
+      throw conflict('Another reviewing electrician is assigned to this project; reassign it before taking this step', [{ field: 'reviewerId', message: 'is another reviewer' }])
+    }
+    const note = body.note || null
+    if (ACTION_RULES[body.action].noteRequired && !note) {
+      throw unprocessable(`“${ACTION_RULES[body.action].label}” needs a note saying why`, [{ field: 'note', message: 'is required for this step' }])
+    }
+    if (body.revisionNumber !== undefined && body.action !== 'request_review') {
+      throw unprocessable('Only a request for review names a revision', [{ field: 'revisionNumber', message: `is not taken by ${body.action}` }])
+    }
+    if (body.stamp !== undefined && body.action !== 'approve_and_stamp') {
+      throw unprocessable('Only approving and stamping takes stamp details', [{ field: 'stamp', message: `is not taken by ${body.action}` }])
+    }
+    if (body.submission !== undefined && !isPaperworkAction(body.action)) {
+      throw unprocessable('Only the submission steps take submission details', [{ field: 'submission', message: `is not taken by ${body.action}` }])
+    }
+    const revision = body.action === 'request_review'
+      ? await this.revisionForReview(manager, project, body.revisionNumber)
+      : await this.revisionInWorkflow(manager, project.id)
+    if (body.action === 'approve_and_stamp') await this.approveAndStamp(manager, actor, project, revision)
+    for (const guard of this.guards.get(body.action) ?? []) await guard(manager, { actor, project, revision, body })
+    return { project, to: decision.to, note, revision }
+  }
+
+  async transition(actor: AuthUser, projectId: string, body: TransitionBody): Promise<TransitionResultDto> {
+    const effect = this.effects.get(body.action)
+    let prepared: unknown
+    if (effect?.prepare) {
+      const seen = await this.check(this.db.manager, actor, projectId, body)
+      prepared = await effect.prepare({ actor, project: seen.project, revision: seen.revision, body })
+    }
+    return this.db.transaction(async (manager) => {
+      const { project, to, note, revision } = await this.check(manager, actor, projectId, body)
+      const moved = await updateAtVersion(manager, ProjectEntity, { organizationId: actor.organizationId, id: project.id, version: body.version }, { status: to }, WHAT, async (current) => ({
         current: await this.projects.toDto(current, manager),
       }))
-      const row = await this.record(manager, actor, project, body.action, decision.to, note, revision)
+      const row = await this.record(manager, actor, project, body.action, to, note, revision)
+      await effect?.apply(manager, { actor, project, revision, body, prepared, to, transitionId: row.id })
       return { project: await this.projects.toDto(moved, manager), transition: (await this.toDtos([row], manager))[0]! }
     })
   }
@@ -83,7 +160,7 @@ export class WorkflowService {
   }
 
   /** The revision the workflow is carrying: the one last handed to review (and then stamped, submitted …). */
-  private async revisionInWorkflow(manager: EntityManager, projectId: string): Promise<PlanSetRevision | null> {
+  async revisionInWorkflow(manager: EntityManager, projectId: string): Promise<PlanSetRevision | null> {
     const last = await manager.getRepository(ProjectTransitionEntity).findOne({ select: { revisionId: true }, where: { projectId, event: 'request_review' }, order: { seq: 'DESC' } })
     return last?.revisionId ? manager.getRepository(PlanSetRevisionEntity).findOneBy({ id: last.revisionId }) : null
   }
@@ -136,6 +213,11 @@ export class WorkflowService {
       },
       manager,
     )
+    const recorded: RecordedStep = {
+      organizationId: actor.organizationId, projectId: project.id, actorId: actor.id, event, from: project.status, to, note,
+      revision: revision ? { id: revision.id, number: revision.number } : null, transitionId: row.id,
+    }
+    for (const listener of this.listeners) await listener(manager, recorded)
     return row
   }
 

@@ -1,5 +1,6 @@
 import { z } from 'zod'
 import { NEC_EDITIONS } from '../electrical/types'
+import { revisionStampDto } from './stamp'
 
 /**
  * Plan-set revisions and the background jobs that generate them: request and response shapes
@@ -79,6 +80,8 @@ export const revisionDto = z.object({
   /** The files inside the zip, as the manifest lists them. */
   files: z.array(packageFileDto),
   sheetCount: z.number().int(),
+  /** The licensed reviewer's stamp; null until stamped. A stamped revision serves the signed files. */
+  stamp: revisionStampDto.nullable(),
 })
 export type RevisionDto = z.infer<typeof revisionDto>
 

@@ -1,6 +1,8 @@
 import { z } from 'zod'
 import { TIMELINE_EVENTS, WORKFLOW_ACTIONS } from '../workflow'
 import { PROJECT_STATUSES, projectDto } from './project'
+import { stampStepBody } from './stamp'
+import { submissionStepBody } from './submission'
 
 /** Request and response shapes of the permit-set workflow, shared by client and server. */
 
@@ -11,6 +13,8 @@ export const transitionBody = z
     note: z.string().trim().max(2000, 'must be at most 2000 characters').optional().describe('Why: what to change, what the AHJ asked, the reference or permit number'),
     revisionNumber: z.number().int().min(0).optional().describe('request_review only: the plan-set revision to review; the newest one when left out'),
     version: z.number().int().min(1).describe('The project version read; a stale one answers 409'),
+    stamp: stampStepBody.optional().describe('approve_and_stamp only: what signing the plan set needs'),
+    submission: submissionStepBody.optional().describe('the paperwork steps only: dates, references and documents of the submission'),
   })
   .strict()
 export type TransitionBody = z.infer<typeof transitionBody>

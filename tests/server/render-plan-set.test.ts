@@ -133,6 +133,10 @@ describe('plan-set PDF', () => {
     // placeholders are sheets: framed, with the caution; the index lists every attachment
     for (const p of after.slice(2, 4)) expect(p).toContain(flat(SAFETY_CAUTION))
     for (const id of ['ATT-A', 'ATT-B', 'ATT-C', 'ATT-D']) expect(pages[0]).toContain(id)
+    // every framed sheet has its stamp box on the page it ended up on; merged datasheets have none
+    const boxed = out.stampBoxes.map((b) => b.page)
+    expect(boxed).toEqual([...pages.keys()].filter((k) => k <= e604 || k === e604 + 3 || k === e604 + 4))
+    for (const b of out.stampBoxes) expect(pages[b.page]).toContain("REVIEWER'S STAMP AND SIGNATURE")
   })
 
   it('hostile project text neither breaks the PDF nor escapes into the SVG', async () => {

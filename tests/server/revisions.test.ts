@@ -1,5 +1,4 @@
 import { createHash } from 'node:crypto'
-import { PDFParse } from 'pdf-parse'
 import { pino } from 'pino'
 import request from 'supertest'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
@@ -10,6 +9,7 @@ import { PackageQueue } from '../../server/jobs/queue'
 import { startPackageWorker, type RunningWorker } from '../../server/jobs/worker'
 import { fieldsOf, samplePdf, startWorkspace, type Workspace } from './support/workspace'
 import { unzip } from '../support/unzip'
+import { binary, finishedJob, generateRevision, pdfText, projectPath as projectPathOf } from './support/plan-sets'
 
 let w: Workspace
 let worker: RunningWorker
@@ -24,38 +24,9 @@ afterAll(async () => {
 })
 
 const sha256 = (bytes: Buffer) => createHash('sha256').update(bytes).digest('hex')
-const projectPath = (code: string) => `/api/projects/${w.projects[code]!.id}`
-/** Supertest collects a binary body as a Buffer. */
-const binary = (req: request.Test) => req.buffer(true).parse((res, done) => {
-  const chunks: Buffer[] = []
-  res.on('data', (c: Buffer) => chunks.push(c))
-  res.on('end', () => done(null, Buffer.concat(chunks)))
-})
-
-async function pdfText(bytes: Buffer): Promise<string> {
-  const parser = new PDFParse({ data: new Uint8Array(bytes) })
-  const result = await parser.getText()
-  await parser.destroy()
-  return result.text.replace(/\s+/g, ' ')
-}
-
-/** Polls the job until it has finished, one way or the other. */
-async function finished(code: string, jobId: string, base = projectPath(code)) {
-  for (let i = 0; i < 240; i++) {
-    const res = await request(w.h.app).get(`${base}/package-jobs/${jobId}`).set(w.as('coordinator'))
-    expect(res.status).toBe(200)
-    if (res.body.job.state === 'completed' || res.body.job.state === 'failed') return res.body.job
-    await new Promise((r) => setTimeout(r, 250))
-  }
-  throw new Error(`job ${jobId} did not finish in 60 s`)
-}
-
-async function generate(code: string, description: string) {
-  const res = await request(w.h.app).post(`${projectPath(code)}/revisions`).set(w.as('designer')).send({ description })
-  expect(res.status, JSON.stringify(res.body)).toBe(202)
-  expect(res.body.job).toMatchObject({ state: 'queued', step: 'queued', progress: 0, description, revisionId: null })
-  return finished(code, res.body.job.id)
-}
+const projectPath = (code: string) => projectPathOf(w, code)
+const finished = (code: string, jobId: string, path = projectPath(code)) => finishedJob(w, path, jobId)
+const generate = (code: string, description: string) => generateRevision(w, code, description)
 
 describe('generating a revision', () => {
   let first: { number: number; packageSha256: string; packageBytes: number; packageName: string; files: { name: string; sha256: string; bytes: number }[] }

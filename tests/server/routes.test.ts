@@ -5,7 +5,7 @@ import { ROLES } from '../../shared/auth/roles'
 import { startHarness, testConfig, type Harness } from './support/harness'
 
 /** Routes open to callers who are not signed in; anything else must name its roles. */
-const PUBLIC_ROUTES = ['GET /api/health', 'GET /api/docs', 'POST /api/auth/login', 'POST /api/auth/refresh', 'POST /api/auth/logout']
+const PUBLIC_ROUTES = ['GET /api/health', 'GET /api/docs', 'POST /api/auth/login', 'POST /api/auth/refresh', 'POST /api/auth/logout', 'GET /api/verify/:code', 'POST /api/verify']
 
 const routes = buildRoutes(testConfig())
 const key = (r: { method: string; path: string }) => `${r.method.toUpperCase()} ${r.path}`

@@ -27,7 +27,7 @@ const ID_OWNERS = {
   users: UserEntity,
 } as const
 /** Values for the other path parameters (they address things under the `:id`). */
-const OTHER_PARAMS: Record<string, string> = { number: '0', name: 'plan-set.pdf', jobId: UNKNOWN_ID, kind: 'module' }
+const OTHER_PARAMS: Record<string, string> = { number: '0', name: 'plan-set.pdf', jobId: UNKNOWN_ID, kind: 'module', commentId: UNKNOWN_ID, fileId: UNKNOWN_ID, messageId: '1700000000000-00000000' }
 
 let h: Harness
 let tokens: Record<Role, string>
@@ -36,7 +36,8 @@ const foreignIds = {} as Record<keyof typeof ID_OWNERS, string>
 const everyForeignId: string[] = []
 
 beforeAll(async () => {
-  h = await startHarness()
+  // with the development mail catcher, so its pages answer as they do under npm start
+  h = await startHarness({}, { mail: true })
   const { foreign } = await seedTwoOrganizations(h)
   await h.db.transaction((manager) => loadDemoWorkspace(manager, foreign.id))
   for (const [segment, entity] of Object.entries(ID_OWNERS)) {
@@ -91,6 +92,14 @@ describe('route × role × organisation matrix', () => {
           // a foreign id is indistinguishable from an id that does not exist
           expect(foreign.status, `${role} foreign id`).toBe(unknown.status)
           expect(foreign.status, `${role} foreign id is never served`).toBeGreaterThanOrEqual(400)
+        } else if (r.method === 'get' && r.path.includes(':')) {
+          // addresses something that is not an organisation's row (a caught message): the guard, then no 5xx
+          const res = await call(r, pathWith(r, UNKNOWN_ID), role)
+          if (!allowed.has(role)) expect(res.status, role).toBe(403)
+          else {
+            expect([401, 403], role).not.toContain(res.status)
+            expect(res.status, role).toBeLessThan(500)
+          }
         } else if (r.method === 'get') {
           const res = await call(r, pathWith(r, UNKNOWN_ID), role)
           if (!allowed.has(role)) expect(res.status, role).toBe(403)

@@ -126,7 +126,8 @@ export function frameSheet(ctx: PlanSetContext, sheetId: string, sheetTitle: str
   const stampBottom = cautionTop - BLOCK_PAD - 12 * scale
   caption("Reviewer's stamp and signature", stampTop)
   const stampHeight = Math.max(40, stampBottom - (stampTop + 10 * scale))
-  items.push({ kind: 'rect', box: { x, y: stampTop + 10 * scale, width: inner, height: stampHeight }, strokeWidth: 0.6, dash: [3, 2] })
+  // marked, so that stamping later finds the box on the published page
+  items.push({ kind: 'group', role: 'stamp-box', data: { sheet: sheetId }, items: [{ kind: 'rect', box: { x, y: stampTop + 10 * scale, width: inner, height: stampHeight }, strokeWidth: 0.6, dash: [3, 2] }] })
   items.push(text('Reviewed by: ____________________  Date: __________', x, stampBottom + 9 * scale, { size: 6 * scale }, inner))
 
   const content: Box = { x: border.x + 12, y: border.y + 12, width: bx - border.x - 24, height: border.height - 24 }

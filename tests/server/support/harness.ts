@@ -16,6 +16,8 @@ import { DEMO_PASSWORD, DEMO_USERS, seedDemo } from '../../../server/demo/seed'
 import { OrganizationEntity, UserEntity } from '../../../server/entities'
 import { PackageQueue } from '../../../server/jobs/queue'
 import { startPackageWorker, type RunningWorker } from '../../../server/jobs/worker'
+import { readCaughtMail, readMailbox, startFakeSmtp, type CaughtMail } from '../../../server/mail/fake-smtp'
+import { createFileStorage } from '../../../server/storage'
 import type { Role } from '../../../shared/auth/roles'
 
 /** A database URL on the test server with another database name. */
@@ -42,6 +44,8 @@ export interface Harness {
   config: AppConfig
   /** URL of this harness's own database (for worker child processes). */
   databaseUrl: string
+  /** With `mail: true`: every message the fake SMTP server caught, oldest first. */
+  mailbox(): CaughtMail[]
   close(): Promise<void>
 }
 
@@ -50,9 +54,12 @@ export const FAST_JOBS = { JOB_EXPIRE_SECONDS: '10', JOB_RETRY_DELAY_SECONDS: '1
 
 /**
  * A fresh database with every migration applied, and the app over it. `worker: true` also runs a
- * plan-set worker in this process, so generations requested through the app complete.
+ * plan-set worker in this process, so generations requested through the app complete (and queued
+ * mails are sent). `mail: true` starts a fake SMTP server on loopback, points SMTP_* and MAILBOX_DIR at it.
  */
-export async function startHarness(overrides: Record<string, string> = {}, options: { worker?: boolean } = {}): Promise<Harness> {
+export interface HarnessOptions { worker?: boolean; mail?: boolean }
+
+export async function startHarness(overrides: Record<string, string> = {}, options: HarnessOptions = {}): Promise<Harness> {
   const adminUrl = inject('adminDatabaseUrl')
   const name = `sl_test_${randomBytes(6).toString('hex')}`
   await ensureDatabase(adminUrl, name)
@@ -60,6 +67,8 @@ export async function startHarness(overrides: Record<string, string> = {}, optio
   const db = createDataSource(databaseUrl)
   await db.initialize()
   await db.runMigrations()
+  const smtp = options.mail ? await startFakeSmtp(mkdtempSync(path.join(os.tmpdir(), 'stringline-mailbox-'))) : undefined
+  if (smtp) overrides = { SMTP_HOST: smtp.host, SMTP_PORT: String(smtp.port), MAILBOX_DIR: smtp.dir, ...overrides }
   const config = testConfig(overrides)
   const queue = new PackageQueue(databaseUrl, config.jobs, 'api')
   let worker: RunningWorker | undefined
@@ -69,8 +78,14 @@ export async function startHarness(overrides: Record<string, string> = {}, optio
     db,
     config,
     databaseUrl,
+    mailbox() {
+      if (!smtp) throw new Error('start the harness with { mail: true } to read its mailbox')
+      const { dir } = smtp
+      return readMailbox(dir).reverse().map((m) => readCaughtMail(dir, m.id)!)
+    },
     async close() {
       await worker?.stop()
+      await smtp?.stop()
       await queue.stop()
       await db.destroy()
       await dropDatabase(adminUrl, name)
@@ -82,7 +97,7 @@ export const demoEmail = (role: Role) => DEMO_USERS.find((u) => u.role === role)
 
 /** The demo organisation plus a second, foreign one ("Quillfeather Energy") with a user per role. */
 export async function seedTwoOrganizations(h: Harness) {
-  await seedDemo(h.db, h.config.bcryptCost)
+  await seedDemo(h.db, h.config.bcryptCost, createFileStorage(h.config))
   const foreign = await h.db.getRepository(OrganizationEntity).save({ slug: 'quillfeather-energy', name: 'Quillfeather Energy' })
   const passwordHash = await hashPassword(DEMO_PASSWORD, h.config.bcryptCost)
   const roles: Role[] = ['admin', 'designer', 'reviewer', 'coordinator']

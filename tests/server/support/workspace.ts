@@ -1,7 +1,7 @@
 import request from 'supertest'
 import { PDFDocument, StandardFonts } from 'pdf-lib'
 import type { Role } from '../../../shared/auth/roles'
-import { login, seedTwoOrganizations, startHarness, tokensByRole, type Harness } from './harness'
+import { login, seedTwoOrganizations, startHarness, tokensByRole, type Harness, type HarnessOptions } from './harness'
 
 export interface Workspace {
   h: Harness
@@ -14,9 +14,9 @@ export interface Workspace {
   projects: Record<string, { id: string; version: number }>
 }
 
-/** A fresh database with the demo organisation (and its demo workspace) plus a foreign one, signed in as every role of both. */
-export async function startWorkspace(overrides: Record<string, string> = {}): Promise<Workspace> {
-  const h = await startHarness(overrides)
+/** A fresh database with the demo organisation (and its demo workspace, the reviewer with demo stamp credentials) plus a foreign one, signed in as every role of both. */
+export async function startWorkspace(overrides: Record<string, string> = {}, options: HarnessOptions = {}): Promise<Workspace> {
+  const h = await startHarness(overrides, options)
   await seedTwoOrganizations(h)
   const tokens = await tokensByRole(h.app)
   const roles = ['admin', 'designer', 'reviewer', 'coordinator'] as const
