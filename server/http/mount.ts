@@ -28,7 +28,8 @@ function checkResponse(def: AnyRoute, body: unknown): void {
 
 /** Reads one file into memory; multer's limit errors become 413 / 400 naming the field. */
 function readUpload(spec: UploadSpec, maxBytes: number): RequestHandler {
-  const single = multer({ storage: multer.memoryStorage(), limits: { fileSize: maxBytes, files: 1, fields: 20 } }).single(spec.field)
+  // browsers send file names as UTF-8 without saying so; busboy's default would read them as Latin-1
+  const single = multer({ storage: multer.memoryStorage(), defParamCharset: 'utf8', limits: { fileSize: maxBytes, files: 1, fields: 20 } }).single(spec.field)
   return (req, res, next) => {
     single(req, res, (err: unknown) => {
       if (!err) return next()
