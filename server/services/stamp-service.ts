@@ -301,7 +301,7 @@ export class StampService {
         stamp: facts,
         reason: otherKey
           ? `The file names the stamp of ${who}, but it was signed with another certificate.`
-          : `The file claims to be ${who}, but it is not the file that was signed: it was changed after signing. ${check.state === 'valid' ? '' : check.reason}`.trim(),
+          : `The file claims to be ${who}, but it is not the file that was signed: it was changed after signing.`,
       }
     }
     const unknown = check.state === 'unsigned' ? 'The file carries no digital signature, and it is not a plan set stamped in Stringline.' : `${check.reason} The file is not a plan set stamped in Stringline.`

@@ -14,13 +14,18 @@ async function navFor(role: Role) {
 
 describe('side navigation', () => {
   it('shows an administrator every page, Users among them', async () => {
-    expect((await navFor('admin')).map((item) => item.label)).toEqual(['Home', 'Projects', 'Equipment library', 'Jurisdictions', 'Users', 'My profile'])
+    expect((await navFor('admin')).map((item) => item.label)).toEqual(['Home', 'Projects', 'Equipment library', 'Jurisdictions', 'Submissions', 'Users', 'Caught mail', 'My profile'])
   })
 
-  it.each<Role>(['designer', 'reviewer', 'coordinator'])('hides Users from a %s', async (role) => {
+  it.each<Role>(['designer', 'reviewer'])('hides Users and the submission board from a %s', async (role) => {
     const items = await navFor(role)
     expect(items.map((item) => item.label)).toEqual(['Home', 'Projects', 'Equipment library', 'Jurisdictions', 'My profile'])
-    expect(items.some((item) => item.href === '/users')).toBe(false)
+    expect(items.some((item) => item.href === '/users' || item.href === '/submissions')).toBe(false)
+  })
+
+  it('shows a coordinator the submission board but not Users or the caught mail', async () => {
+    const items = await navFor('coordinator')
+    expect(items.map((item) => item.label)).toEqual(['Home', 'Projects', 'Equipment library', 'Jurisdictions', 'Submissions', 'My profile'])
   })
 
   it('links each item to its page and marks the page being shown', async () => {
@@ -29,7 +34,9 @@ describe('side navigation', () => {
       { label: 'Projects', href: '/projects', current: undefined },
       { label: 'Equipment library', href: '/equipment', current: undefined },
       { label: 'Jurisdictions', href: '/jurisdictions', current: undefined },
+      { label: 'Submissions', href: '/submissions', current: undefined },
       { label: 'Users', href: '/users', current: undefined },
+      { label: 'Caught mail', href: '/mailbox', current: undefined },
       { label: 'My profile', href: '/profile', current: 'page' },
     ])
   })

@@ -100,8 +100,8 @@ describe('route table', () => {
       expect(record.meta?.title, record.path).toMatch(/\S/)
     }
     expect(records.map((record) => record.path)).toEqual([
-      '/sign-in', '/', '/', '/projects', '/equipment', '/jurisdictions', '/users', '/profile',
-      '/projects/:projectId', '/projects/:projectId/design', '/projects/:projectId/package', '/:pathMatch(.*)*',
+      '/sign-in', '/verify/:code?', '/', '/', '/projects', '/equipment', '/jurisdictions', '/submissions', '/users', '/mailbox', '/profile',
+      '/projects/:projectId', '/projects/:projectId/design', '/projects/:projectId/package', '/projects/:projectId/review', '/:pathMatch(.*)*',
     ])
   })
 })

@@ -19,6 +19,7 @@ type ProjectRoutes = {
 /** Every named route; `router.push({ name })` and `<RouterLink :to>` reject a name not listed here. */
 export interface AppRouteMap extends ShellRoutes, ProjectRoutes {
   'sign-in': RouteRecordInfo<'sign-in', '/sign-in', NoParams, NoParams>
+  verify: RouteRecordInfo<'verify', '/verify/:code?', { code?: string }, { code?: string }>
   'not-found': RouteRecordInfo<'not-found', '/:pathMatch(.*)*', { pathMatch: string | string[] }, { pathMatch: string[] }>
 }
 export type RouteName = keyof AppRouteMap
@@ -39,6 +40,13 @@ export const routes: RouteRecordRaw[] = [
     name: 'sign-in',
     component: () => import('@/pages/SignInPage.vue'),
     meta: { access: 'public', title: 'Sign in' },
+  },
+  {
+    // public: anyone holding a stamped sheet (an AHJ plan reviewer, an inspector) checks it here
+    path: '/verify/:code?',
+    name: 'verify',
+    component: () => import('@/pages/VerifyPage.vue'),
+    meta: { access: 'public', title: 'Verify a stamped plan set' },
   },
   {
     path: '/',

@@ -1,5 +1,5 @@
 import type { Component } from 'vue'
-import { Box, Files, House, Location, Postcard, UserFilled } from '@element-plus/icons-vue'
+import { Box, Files, House, Location, Message, Postcard, Tickets, UserFilled } from '@element-plus/icons-vue'
 import { ANY_ROLE, type Role } from '@shared/auth/roles'
 
 /** A screen inside the signed-in shell. The routes and the side navigation are both built from this list. */
@@ -21,7 +21,9 @@ export const SHELL_PAGES = [
   { name: 'projects', path: '/projects', title: 'Projects', icon: Files, roles: ANY_ROLE, component: () => import('@/pages/ProjectsPage.vue') },
   { name: 'equipment', path: '/equipment', title: 'Equipment library', icon: Box, roles: ANY_ROLE, component: () => import('@/pages/EquipmentPage.vue') },
   { name: 'jurisdictions', path: '/jurisdictions', title: 'Jurisdictions', icon: Location, roles: ANY_ROLE, component: () => import('@/pages/JurisdictionsPage.vue') },
+  { name: 'submissions', path: '/submissions', title: 'Submissions', icon: Tickets, roles: ['coordinator', 'admin'], component: () => import('@/pages/SubmissionsPage.vue') },
   { name: 'users', path: '/users', title: 'Users', icon: UserFilled, roles: ['admin'], component: () => import('@/pages/UsersPage.vue') },
+  { name: 'mailbox', path: '/mailbox', title: 'Caught mail', icon: Message, roles: ['admin'], component: () => import('@/pages/MailboxPage.vue') },
   { name: 'profile', path: '/profile', title: 'My profile', icon: Postcard, roles: ANY_ROLE, component: () => import('@/pages/ProfilePage.vue') },
 ] as const satisfies readonly ShellPage[]
 
@@ -30,6 +32,7 @@ export const PROJECT_PAGES = [
   { name: 'project', path: '/projects/:projectId', title: 'Project', roles: ANY_ROLE, component: () => import('@/pages/ProjectPage.vue') },
   { name: 'project-design', path: '/projects/:projectId/design', title: 'Design', roles: ANY_ROLE, component: () => import('@/pages/DesignEditorPage.vue') },
   { name: 'project-package', path: '/projects/:projectId/package', title: 'Plan set', roles: ANY_ROLE, component: () => import('@/pages/ProjectPackagePage.vue') },
+  { name: 'project-review', path: '/projects/:projectId/review', title: 'Review', roles: ANY_ROLE, component: () => import('@/pages/ProjectReviewPage.vue') },
 ] as const satisfies readonly Omit<ShellPage, 'icon'>[]
 
 export type ShellPageEntry = (typeof SHELL_PAGES)[number]

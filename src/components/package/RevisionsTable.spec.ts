@@ -54,4 +54,21 @@ describe('revisions table', () => {
     await wrapper.get('button[aria-label="Copy the SHA-256 of plan-set.pdf"]').trigger('click')
     expect(writeText).toHaveBeenCalledWith(`ab12cd34ef56${'7'.repeat(52)}`)
   })
+
+  it('shows a stamped revision’s holder, date and verification id, marks a demo stamp, and says when none is stamped', async () => {
+    const stamp = { verificationId: '7K2M-9QXR-4T1H', stampedAt: '2026-12-06T11:00:00.000Z', holderName: 'Tobias Wren', licenceNumber: 'EC-204417', licenceRegion: 'Northmarch', signedPdfSha256: 'c'.repeat(64), demo: false }
+    const wrapper = mount(RevisionsTable, {
+      props: { revisions: [aRevision(2, { stamp: { ...stamp, verificationId: 'Q3W8-T0PA-6N2C', demo: true } }), aRevision(1, { stamp }), aRevision(0)], selected: 2 },
+      attachTo: document.body,
+    })
+    await flushPromises()
+    const stampCells = dataRows(wrapper).map((row) => row.findAll('td')[9]!)
+
+    expect(stampCells[1]!.findAll('.el-tag').map((t) => t.text())).toEqual(['Stamped'])
+    expect(stampCells[1]!.get('.revision-stamp__who').text()).toMatch(/^Tobias Wren, .*2026$/)
+    expect(stampCells[1]!.get('code').text()).toBe('7K2M-9QXR-4T1H')
+    expect(stampCells[0]!.findAll('.el-tag').map((t) => t.text())).toEqual(['Stamped', 'demo'])
+    expect(stampCells[0]!.get('code').text()).toBe('Q3W8-T0PA-6N2C')
+    expect(stampCells[2]!.text()).toBe('Not stamped')
+  })
 })

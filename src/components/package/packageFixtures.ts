@@ -21,7 +21,7 @@ export const aRevision = (number: number, overrides: Partial<RevisionDto> = {}):
   id: `rev-${number}`, projectId: PROJECT_ID, number, description: number === 0 ? 'Issued for permit' : `Resubmittal ${number}`,
   createdAt: `2026-12-0${number + 1}T09:30:00.000Z`, createdBy: { id: 'd', name: 'Ines Okafor' }, designVersion: 4 + number,
   engineVersion: '0.1.0', necEdition: 2023, evaluationStatus: 'pass', sheetSize: 'ANSI B', packageName: `KF-0107_rev0${number}.zip`,
-  packageBytes: 481_234, packageSha256: hash(String(number)), sheetCount: 7,
+  packageBytes: 481_234, packageSha256: hash(String(number)), sheetCount: 7, stamp: null,
   files: [
     { name: 'plan-set.pdf', bytes: 402_112, sha256: `ab12cd34ef56${hash('7').slice(12)}`, mediaType: 'application/pdf' },
     { name: 'single-line.svg', bytes: 38_410, sha256: hash('8'), mediaType: 'image/svg+xml' },

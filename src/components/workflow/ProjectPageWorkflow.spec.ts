@@ -7,7 +7,8 @@ import { SAFETY_CAUTION } from '@shared/electrical/caution'
 import type { ProjectStatus } from '@shared/schemas/project'
 import type { TimelineEntryDto } from '@shared/schemas/workflow'
 import App from '@/App.vue'
-import { aProject, PROJECT_ID } from '@/components/package/packageFixtures'
+import { aProject, aRevision, PROJECT_ID } from '@/components/package/packageFixtures'
+import { aStamp, aSubmission, typeInto } from '@/components/submission/submissionFixtures'
 import { createAppRouter } from '@/router'
 import { aMember, errorResponse, jsonResponse, sessionOf } from '@/testing/fixtures'
 
@@ -17,14 +18,16 @@ const REVIEW_ASKED: TimelineEntryDto = {
   createdAt: '2026-12-01T09:00:00.000Z',
 }
 
-/** The project page's API as the server answers it, with the project in review. */
-function openProjectPage(role: Role, status: ProjectStatus = 'in_review') {
+/** The project page's API as the server answers it, with the project in review (or `status`) and its revision 0 stamped. */
+function openProjectPage(role: Role, status: ProjectStatus = 'in_review', timeline: TimelineEntryDto[] = [REVIEW_ASKED]) {
   const base = `/api/projects/${PROJECT_ID}`
   const posts: unknown[] = []
   vi.stubGlobal('fetch', vi.fn(async (url: string, init?: RequestInit) => {
     if (url === '/api/auth/refresh') return jsonResponse(200, sessionOf(aMember(role)))
     if (url === base) return jsonResponse(200, { project: aProject({ status }) })
-    if (url === `${base}/timeline`) return jsonResponse(200, { items: [REVIEW_ASKED] })
+    if (url === `${base}/timeline`) return jsonResponse(200, { items: timeline })
+    if (url === `${base}/revisions`) return jsonResponse(200, { items: [aRevision(0, { stamp: aStamp() })], activeJob: null })
+    if (url === `${base}/submission`) return jsonResponse(200, { submission: status === 'submitted' ? aSubmission() : null, earlier: [], due: [] })
     if (url.startsWith('/api/jurisdictions')) return jsonResponse(200, { items: [], total: 0, page: 1, pageSize: 100 })
     if (url === '/api/members') return jsonResponse(200, { items: [] })
     if (url === `${base}/transitions` && init?.method === 'POST') {
@@ -44,15 +47,18 @@ async function mountAt() {
   await router.push(`/projects/${PROJECT_ID}`)
   mount(App, { global: { plugins: [router] }, attachTo: document.body })
   await flushPromises()
+  return router
 }
 
 const card = () => document.querySelector('[aria-labelledby="workflow-title"]')!
 const stepButtons = () => [...card().querySelectorAll('.workflow-actions > button')].map((b) => b.textContent?.trim())
+const submissionCard = () => document.querySelector('[aria-labelledby="submission-title"]')
 const entries = () => [...card().querySelectorAll('[data-test="timeline-entry"]')].map((e) => e.textContent?.replace(/\s+/g, ' ') ?? '')
 
 describe('the workflow on the project page', () => {
   beforeEach(() => {
     setActivePinia(createPinia())
+    vi.spyOn(window, 'scrollTo').mockImplementation(() => undefined) // jsdom has no layout to scroll
     document.body.innerHTML = ''
   })
 
@@ -69,14 +75,46 @@ describe('the workflow on the project page', () => {
     const api = openProjectPage('reviewer')
     await mountAt()
     expect(stepButtons()).toEqual(['Request changes', 'Approve and stamp'])
+    expect(submissionCard()).toBeNull()
     card().querySelector<HTMLButtonElement>('[data-test="step-approve_and_stamp"]')!.click()
     await flushPromises()
+    typeInto(document.querySelector<HTMLInputElement>('#step-certificate-password')!, 'heron-7-kestrel')
     ;[...document.querySelectorAll<HTMLButtonElement>('.el-dialog button')].find((b) => b.textContent?.trim() === 'Approve and stamp')!.click()
     await flushPromises()
-    expect(api.posts).toEqual([{ action: 'approve_and_stamp', version: 3 }])
+    expect(api.posts).toEqual([{ action: 'approve_and_stamp', version: 3, stamp: { certificatePassword: 'heron-7-kestrel' } }])
     expect(card().querySelector('[data-test="project-status"]')?.textContent).toBe('Stamped')
     expect(entries()[0]).toContain('Approve and stamp · In review → Stamped')
     expect(entries()).toHaveLength(2)
     expect(stepButtons()).toEqual([])
+    expect(submissionCard()?.textContent).toContain('Licence EC-204417 (Northmarch)')
+    expect(submissionCard()?.textContent).toContain('Not submitted to the AHJ yet.')
+  })
+
+  it('links every role to the review once a revision was handed to it', async () => {
+    openProjectPage('coordinator', 'changes_requested')
+    const router = await mountAt()
+    const push = vi.spyOn(router, 'push').mockResolvedValue(undefined)
+    document.querySelector<HTMLButtonElement>('[data-test="open-review"]')!.click()
+    expect(push).toHaveBeenCalledWith({ name: 'project-review', params: { projectId: PROJECT_ID } })
+
+    document.body.innerHTML = ''
+    setActivePinia(createPinia())
+    openProjectPage('designer', 'draft', [])
+    await mountAt()
+    expect(document.querySelector('[data-test="open-review"]')).toBeNull()
+  })
+
+  it('shows the stamp and the submission from stamping on, editable by the coordinator only', async () => {
+    openProjectPage('designer', 'submitted')
+    await mountAt()
+    expect(submissionCard()!.querySelector('[data-test="stamp-summary"]')!.textContent).toContain('7K2M-9QXR-4T1H')
+    expect(submissionCard()!.querySelector('[data-test="submission-panel"]')!.textContent).toContain('FX-BLD-26-0417')
+    expect(submissionCard()!.querySelectorAll('input[type="date"]')).toHaveLength(0)
+
+    document.body.innerHTML = ''
+    setActivePinia(createPinia())
+    openProjectPage('coordinator', 'submitted')
+    await mountAt()
+    expect(submissionCard()!.querySelector('#submission-fee-paid-on')).not.toBeNull()
   })
 })

@@ -73,6 +73,11 @@ export default async function setup(project: TestProject) {
   }
   rmSync(SCREENSHOT_DIR, { recursive: true, force: true }) // screenshots of an earlier run would mislead
   mkdirSync(SCREENSHOT_DIR, { recursive: true })
+  // while writing a journey: run it against an app you started yourself (fresh demo data) instead
+  if (process.env.BROWSER_APP_URL) {
+    project.provide('appUrl', process.env.BROWSER_APP_URL)
+    return
+  }
   const dataDir = mkdtempSync(path.join(os.tmpdir(), 'stringline-browser-'))
   chmodSync(dataDir, 0o755) // as root, the cluster runs as `postgres` and must reach the folder
   const port = await freePort()
