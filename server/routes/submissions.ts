@@ -9,6 +9,12 @@ const projectParams = z.object({ id: z.string() })
 /** People who run the paperwork (the architecture guide's coordinator, with the administrator standing in). */
 const PAPERWORK = ['coordinator', 'admin'] as const
 
+/** The documents a submission keeps; what each may be is the upload service's `UPLOAD_USES`. */
+const SUBMISSION_UPLOADS = [
+  { path: 'letters', use: 'correctionLetter', description: 'The correction letter as PDF', summary: 'Upload an AHJ correction letter (PDF, sniffed by content); name the answer’s file id in the record_corrections step' },
+  { path: 'receipt', use: 'feeReceipt', description: 'The receipt as PDF, PNG or JPEG', summary: 'Upload a fee receipt (PDF, PNG or JPEG, sniffed by content); name its file id in the submission' },
+] as const
+
 export const submissionRoutes = [
   route({
     method: 'get',
@@ -55,26 +61,18 @@ export const submissionRoutes = [
     response: projectSubmissionDto,
     handler: ({ user, params, body, services }) => services.submissions.update(user!, params.id, body),
   }),
-  route({
-    method: 'post',
-    path: '/api/projects/:id/submission/letters',
-    access: PAPERWORK,
-    summary: 'Upload an AHJ correction letter (PDF, sniffed by content); name the answer’s file id in the record_corrections step',
-    params: projectParams,
-    upload: { field: 'file', description: 'The correction letter as PDF' },
-    response: uploadedFileDto,
-    handler: async ({ user, params, file, services }) => new Reply(201, await services.submissions.upload(user!, params.id, 'correctionLetter', file)),
-  }),
-  route({
-    method: 'post',
-    path: '/api/projects/:id/submission/receipt',
-    access: PAPERWORK,
-    summary: 'Upload a fee receipt (PDF, PNG or JPEG, sniffed by content); name its file id in the submission',
-    params: projectParams,
-    upload: { field: 'file', description: 'The receipt as PDF, PNG or JPEG' },
-    response: uploadedFileDto,
-    handler: async ({ user, params, file, services }) => new Reply(201, await services.submissions.upload(user!, params.id, 'feeReceipt', file)),
-  }),
+  ...SUBMISSION_UPLOADS.map((u) =>
+    route({
+      method: 'post',
+      path: `/api/projects/:id/submission/${u.path}`,
+      access: PAPERWORK,
+      summary: u.summary,
+      params: projectParams,
+      upload: { field: 'file', description: u.description },
+      response: uploadedFileDto,
+      handler: async ({ user, params, file, services }) => new Reply(201, await services.submissions.upload(user!, params.id, u.use, file)),
+    }),
+  ),
   route({
     method: 'get',
     path: '/api/projects/:id/submission/files/:fileId',

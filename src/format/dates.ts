@@ -1,4 +1,8 @@
 const dateFormat = new Intl.DateTimeFormat(undefined, { dateStyle: 'medium' })
+const dateTimeFormat = new Intl.DateTimeFormat(undefined, { dateStyle: 'medium', timeStyle: 'short' })
+
+/** An ISO timestamp with its time of day, in the reader's locale and zone. */
+export const formatDateTime = (iso: string) => dateTimeFormat.format(new Date(iso))
 
 /** A `YYYY-MM-DD` calendar date or an ISO timestamp, as the reader's locale writes dates. */
 export function formatDate(value: string | null): string {

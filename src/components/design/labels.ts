@@ -1,3 +1,5 @@
+import type { RunResult } from '@shared/electrical/evaluate'
+import { sizeLabel } from '@shared/electrical/rules/sizes'
 import type { CircuitKind, Status } from '@shared/electrical/types'
 import { indexNodes, type DesignDocument, type Run, type SystemKind } from '@shared/schemas/design'
 
@@ -73,4 +75,10 @@ export function runEndpoints(doc: DesignDocument): Endpoint[] {
 export function freeId(doc: DesignDocument, prefix: string): string {
   const used = indexNodes(doc)
   for (let n = 1; ; n++) if (!used.has(`${prefix}${n}`)) return `${prefix}${n}`
+}
+
+/** The conductor a run got: `2 × 3/0 AWG Cu` for parallel sets, `—` when none was chosen. */
+export function conductorLabel(run: Pick<RunResult, 'size' | 'parallelSets' | 'material'>): string {
+  if (!run.size) return '—'
+  return `${run.parallelSets > 1 ? `${run.parallelSets} × ` : ''}${sizeLabel(run.size)} ${run.material}`
 }
