@@ -8,6 +8,7 @@ import { pino, type Logger } from 'pino'
 import { pinoHttp } from 'pino-http'
 import type { DataSource } from 'typeorm'
 import { createAuthenticator } from './auth/guard'
+import type { SignedInUsers } from './auth/signed-in-users'
 import type { PackageQueue } from './jobs/queue'
 import type { AppConfig } from './config'
 import { apiNotFound, errorHandler } from './http/error-handler'
@@ -21,11 +22,13 @@ export interface AppDeps {
   logger?: Logger
   /** Where generations are sent; made over `db` (started on first use) when not given. The caller stops it. */
   queue?: PackageQueue
+  /** Keeps the users of bearer tokens between requests; the caller starts and stops it. */
+  signedIn?: SignedInUsers
 }
 
 /** The Express app, separate from `listen` so tests drive it with supertest. */
-export function createApp({ db, config, logger = pino({ level: config.logLevel }), queue }: AppDeps): Express {
-  const services = createServices(db, config, queue)
+export function createApp({ db, config, logger = pino({ level: config.logLevel }), queue, signedIn }: AppDeps): Express {
+  const services = createServices(db, config, queue, signedIn)
   const requireRoles = createAuthenticator(config, services.auth)
   const app = express()
   app.disable('x-powered-by')

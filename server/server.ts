@@ -1,6 +1,7 @@
 import { createServer, type Server } from 'node:http'
 import { pino } from 'pino'
 import { createApp } from './app'
+import { SignedInUsers } from './auth/signed-in-users'
 import type { AppConfig } from './config'
 import { createDataSource } from './db/data-source'
 import { seedDemo } from './demo/seed'
@@ -24,7 +25,9 @@ export async function runServer(config: AppConfig, databaseUrl: string, options:
   // this process only sends generations; worker processes (server/worker.ts) run them
   const queue = new PackageQueue(databaseUrl, config.jobs, 'api', (err) => logger.error({ err }, 'queue error'))
   await queue.boss()
-  const server = createServer(createApp({ db, config, logger, queue }))
+  const signedIn = new SignedInUsers(databaseUrl, (err) => logger.warn({ err }, 'lost the users-changed listener; reading users per request until it is back'))
+  await signedIn.start()
+  const server = createServer(createApp({ db, config, logger, queue, signedIn }))
   await new Promise<void>((resolve, reject) => {
     server.once('error', reject)
     server.listen(config.port, config.host, resolve)
@@ -37,6 +40,7 @@ export async function runServer(config: AppConfig, databaseUrl: string, options:
     async close() {
       await new Promise<void>((resolve) => server.close(() => resolve()))
       server.closeAllConnections()
+      await signedIn.stop()
       await queue.stop()
       await db.destroy()
     },

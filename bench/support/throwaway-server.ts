@@ -1,17 +1,20 @@
 import { chmodSync, mkdtempSync, rmSync } from 'node:fs'
 import os from 'node:os'
 import path from 'node:path'
-import { loadConfig } from '../../server/config'
-import { runServer, type RunningServer } from '../../server/server'
+import { spawn } from 'node:child_process'
 import {
   clusterAt, clusterUrl, ensureDatabase, ensurePostgresInstalled, freePort, initCluster, startCluster, stopCluster,
 } from '../../scripts/lib/postgres-cluster'
+import { REPOSITORY_ROOT } from '../../tests/browser/support/paths'
 
-export interface ThrowawayServer { url: string; running: RunningServer; stop(): Promise<void> }
+export interface ThrowawayServer { url: string; stop(): Promise<void> }
+
+const STARTUP_LIMIT_MS = 120_000
 
 /**
- * The API as a deployed process runs it (production settings, demo data), over a private
- * PostgreSQL cluster in a temporary folder on 127.0.0.1; `stop` removes both. For benchmarks.
+ * The API as a deployed process runs it (`server/main.ts` in a process of its own, production
+ * settings, demo data), over a private PostgreSQL cluster in a temporary folder on 127.0.0.1; `stop`
+ * removes both. For benchmarks: the load generator keeps this process, the API gets its own.
  */
 export async function startThrowawayServer(env: Record<string, string> = {}): Promise<ThrowawayServer> {
   const bin = ensurePostgresInstalled()
@@ -21,26 +24,44 @@ export async function startThrowawayServer(env: Record<string, string> = {}): Pr
   initCluster(bin, cluster)
   startCluster(bin, cluster)
   await ensureDatabase(clusterUrl(cluster), 'stringline')
-  const config = loadConfig({
-    NODE_ENV: 'production',
-    JWT_SECRET: 'bench-only-secret-0123456789abcdef0123456789abcdef',
-    DATA_DIR: path.join(root, 'data'),
-    PORT: String(await freePort()),
-    HOST: '127.0.0.1',
-    LOG_LEVEL: 'error',
-    LOGIN_LIMIT_PER_IP: '1000000',
-    LOGIN_LIMIT_PER_ACCOUNT: '1000000',
-    ...env,
-  })
-  const running = await runServer(config, clusterUrl(cluster, 'stringline'), { demo: true })
-  return {
-    url: running.url,
-    running,
-    async stop() {
-      await running.close()
-      stopCluster(bin, cluster)
-      rmSync(root, { recursive: true, force: true })
+  const port = await freePort()
+  const api = spawn(process.execPath, ['--import', 'tsx', 'server/main.ts'], {
+    cwd: REPOSITORY_ROOT,
+    stdio: ['ignore', 'inherit', 'inherit'],
+    env: {
+      ...process.env,
+      NODE_ENV: 'production',
+      DATABASE_URL: clusterUrl(cluster, 'stringline'),
+      LOAD_DEMO_DATA: 'true',
+      JWT_SECRET: 'bench-only-secret-0123456789abcdef0123456789abcdef',
+      DATA_DIR: path.join(root, 'data'),
+      PORT: String(port),
+      HOST: '127.0.0.1',
+      LOG_LEVEL: 'error',
+      LOGIN_LIMIT_PER_IP: '1000000',
+      LOGIN_LIMIT_PER_ACCOUNT: '1000000',
+      ...env,
     },
+  })
+  const exited = new Promise<void>((resolve) => api.once('exit', () => resolve()))
+  const stop = async () => {
+    if (api.exitCode === null && api.signalCode === null) {
+      api.kill('SIGTERM')
+      await exited
+    }
+    stopCluster(bin, cluster)
+    rmSync(root, { recursive: true, force: true })
+  }
+  const url = `http://127.0.0.1:${port}`
+  const deadline = Date.now() + STARTUP_LIMIT_MS
+  for (;;) {
+    const up = await fetch(`${url}/api/health`).then((r) => r.ok, () => false)
+    if (up) return { url, stop }
+    if (api.exitCode !== null || Date.now() > deadline) {
+      await stop()
+      throw new Error(`the API process did not come up at ${url} (exit ${api.exitCode})`)
+    }
+    await new Promise((resolve) => setTimeout(resolve, 250))
   }
 }
 

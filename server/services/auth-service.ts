@@ -2,6 +2,7 @@ import { randomUUID } from 'node:crypto'
 import { IsNull, type DataSource } from 'typeorm'
 import type { LoginBody, UserDto } from '../../shared/schemas/auth'
 import type { AuthUser } from '../auth/auth-user'
+import type { SignedInUsers } from '../auth/signed-in-users'
 import { decoyHash, verifyPassword } from '../auth/passwords'
 import { hashRefreshToken, newRefreshToken, signAccessToken } from '../auth/tokens'
 import type { AppConfig } from '../config'
@@ -31,6 +32,8 @@ export class AuthService {
     private readonly config: AppConfig,
     private readonly users: UserService,
     private readonly audit: AuditService,
+    /** Users kept between requests, forgotten when their row changes; without it every request reads the row. */
+    private readonly signedIn?: SignedInUsers,
   ) {
     this.decoy = decoyHash(config.bcryptCost)
   }
@@ -75,9 +78,16 @@ export class AuthService {
   }
 
   /** Loads the caller for a verified access token: inactive or vanished users are refused at once. */
+  /** Every authenticated request asks this: the kept user, or one plain statement without the ORM's query building. */
   async userForToken(userId: string, organizationId: string): Promise<AuthUser | null> {
-    const user = await this.db.getRepository(UserEntity).findOneBy({ id: userId, organizationId, active: true })
-    return user ? { id: user.id, organizationId: user.organizationId, email: user.email, name: user.name, role: user.role } : null
+    const load = async () => {
+      const rows: AuthUser[] = await this.db.query(
+        'SELECT id, organization_id AS "organizationId", email, name, role FROM users WHERE id = $1 AND organization_id = $2 AND active',
+        [userId, organizationId],
+      )
+      return rows[0] ?? null
+    }
+    return this.signedIn ? this.signedIn.get(userId, organizationId, load) : load()
   }
 
   async me(user: AuthUser): Promise<UserDto> {

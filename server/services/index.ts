@@ -1,4 +1,5 @@
 import type { DataSource } from 'typeorm'
+import type { SignedInUsers } from '../auth/signed-in-users'
 import type { AppConfig } from '../config'
 import { MailQueue } from '../jobs/mail-queue'
 import { connectionStringOf, PackageQueue } from '../jobs/queue'
@@ -38,10 +39,13 @@ export interface Services {
   submissions: SubmissionService
 }
 
-/** `queue` is where generations are sent; by default one is made over the same database, started on first use. */
-export function createServices(db: DataSource, config: AppConfig, queue = new PackageQueue(connectionStringOf(db), config.jobs, 'api')): Services {
+/**
+ * `queue` is where generations are sent; by default one is made over the same database, started on
+ * first use. `signedIn` keeps the users of bearer tokens between requests (API processes start one).
+ */
+export function createServices(db: DataSource, config: AppConfig, queue = new PackageQueue(connectionStringOf(db), config.jobs, 'api'), signedIn?: SignedInUsers): Services {
   const audit = new AuditService(db)
-  const users = new UserService(db, audit, config.bcryptCost)
+  const users = new UserService(db, audit, config.bcryptCost, signedIn)
   const jurisdictions = new JurisdictionService(db, audit)
   const projects = new ProjectService(db, audit, jurisdictions)
   const storage = createFileStorage(config)
@@ -51,7 +55,7 @@ export function createServices(db: DataSource, config: AppConfig, queue = new Pa
   return {
     audit,
     users,
-    auth: new AuthService(db, config, users, audit),
+    auth: new AuthService(db, config, users, audit, signedIn),
     health: new HealthService(db),
     jurisdictions,
     projects,

@@ -3,6 +3,7 @@ import { Brackets, type DataSource, type EntityManager } from 'typeorm'
 import type { CreateUserBody, MemberDto, UpdateUserBody, UserDto } from '../../shared/schemas/auth'
 import type { Page } from '../../shared/schemas/paging'
 import type { AuthUser } from '../auth/auth-user'
+import type { SignedInUsers } from '../auth/signed-in-users'
 import { hashPassword } from '../auth/passwords'
 import { OrganizationEntity, RefreshTokenEntity, UserEntity, type User } from '../entities'
 import { conflict } from '../http/errors'
@@ -25,6 +26,7 @@ export class UserService {
     private readonly db: DataSource,
     private readonly audit: AuditService,
     private readonly bcryptCost: number,
+    private readonly signedIn?: SignedInUsers,
   ) {}
 
   async toDto(user: User, manager: EntityManager = this.db.manager): Promise<UserDto> {
@@ -108,7 +110,7 @@ export class UserService {
     if (user.id === actor.id && body.role !== undefined && body.role !== 'admin') {
       throw conflict('You cannot remove your own administrator role', [{ field: 'role', message: 'Ask another administrator' }])
     }
-    return this.db.transaction(async (manager) => {
+    const updated = await this.db.transaction(async (manager) => {
       const changes: Record<string, { from: unknown; to: unknown }> = {}
       for (const [key, value] of Object.entries(body) as [keyof UpdateUserBody, unknown][]) {
         if (value !== undefined && user[key] !== value) changes[key] = { from: user[key], to: value }
@@ -135,5 +137,8 @@ export class UserService {
       }
       return this.toDto(saved, manager)
     })
+    // committed: this process stops using the old row now; others hear of it by notification
+    this.signedIn?.forget(user.id)
+    return updated
   }
 }
