@@ -13,6 +13,8 @@ import { openBrowser, signIn, type BrowserSession } from './support/browser'
  */
 const PROJECT_CODE = 'CH-0102'
 const PROJECT_NAME = 'Okafor residence PV and storage'
+/** A comment with markup in it: shown as the text it is, never run or rendered. */
+const HOSTILE_COMMENT = 'Show the voltage drop of R1 <img src=x onerror="alert(1)"> at the design high temperature'
 const EMAIL = {
   admin: 'admin@larkspur-solar.example',
   designer: 'designer@larkspur-solar.example',
@@ -97,11 +99,19 @@ it('the designer asks for review, the reviewer comments and stamps, the coordina
       await shoot('02-review-page')
     })
     await step('pin a comment to a circuit', async () => {
+      const dialogs: string[] = []
+      page.on('dialog', (dialog) => {
+        dialogs.push(dialog.message())
+        void dialog.dismiss()
+      })
       await page.getByRole('button', { name: 'Comment on run R1' }).click()
-      await page.getByLabel('Comment', { exact: true }).fill('Show the voltage drop of R1 at the design high temperature')
+      await page.getByLabel('Comment', { exact: true }).fill(HOSTILE_COMMENT)
       await page.getByRole('button', { name: 'Add comment' }).click()
-      await page.getByText('Show the voltage drop of R1 at the design high temperature').first().waitFor()
+      await page.getByText(HOSTILE_COMMENT).first().waitFor()
       await page.getByText('Circuit R1').first().waitFor()
+      // the markup stayed text: no element was made from it and no script ran
+      expect(await page.locator('img[src="x"]').count()).toBe(0)
+      expect(dialogs).toEqual([])
       await shoot('03-comment')
     })
     await step('request changes', async () => {
@@ -113,7 +123,7 @@ it('the designer asks for review, the reviewer comments and stamps, the coordina
   await asPerson('designer', appUrl, async ({ page, step, shoot }) => {
     await step('answer and resolve the comment, then ask again', async () => {
       await page.goto(`${appUrl}/projects/${projectId}/review`)
-      await page.getByText('Show the voltage drop of R1 at the design high temperature').first().waitFor()
+      await page.getByText(HOSTILE_COMMENT).first().waitFor()
       await page.getByRole('textbox', { name: /^Reply to the comment/ }).fill('Added on E-602')
       await page.getByRole('button', { name: 'Reply', exact: true }).click()
       await page.getByText('Added on E-602').waitFor()
