@@ -7,7 +7,7 @@ import { DesignEntity, type Design } from '../entities'
 import { conflict, notFound, unprocessable, versionConflict } from '../http/errors'
 import type { AuditService } from './audit-service'
 import type { ProjectService } from './project-service'
-import { rethrowUnique, updateAtVersion } from './rows'
+import { isUuid, rethrowUnique, updateAtVersion } from './rows'
 import type { WorkflowService } from './workflow-service'
 
 const WHAT = 'Design'
@@ -49,11 +49,12 @@ export class DesignService {
     }
   }
 
+  /** One query when the design is there; the project is looked up only to say which of the two is missing. */
   private async find(manager: EntityManager, organizationId: string, projectId: string): Promise<Design> {
+    const design = isUuid(projectId) ? await manager.getRepository(DesignEntity).findOneBy({ projectId, organizationId }) : null
+    if (design) return design
     await this.projects.getOwned(organizationId, projectId, manager)
-    const design = await manager.getRepository(DesignEntity).findOneBy({ projectId, organizationId })
-    if (!design) throw notFound('Design of this project (none saved yet)')
-    return design
+    throw notFound('Design of this project (none saved yet)')
   }
 
   async get(organizationId: string, projectId: string): Promise<DesignDto> {

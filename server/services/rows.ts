@@ -7,6 +7,9 @@ import { conflict, notFound, versionConflict, type FieldError } from '../http/er
 
 const UUID_PATTERN = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i
 
+/** Whether `id` can be looked up at all (PostgreSQL refuses a malformed uuid with an error). */
+export const isUuid = (id: string) => UUID_PATTERN.test(id)
+
 /** Loads one row of the caller's organisation; a foreign, unknown or malformed id is 404 alike. */
 export async function findOwned<E extends ObjectLiteral>(
   manager: EntityManager,
@@ -15,7 +18,7 @@ export async function findOwned<E extends ObjectLiteral>(
   id: string,
   what: string,
 ): Promise<E> {
-  if (!UUID_PATTERN.test(id)) throw notFound(what)
+  if (!isUuid(id)) throw notFound(what)
   const row = await manager.getRepository(entity).findOneBy({ id, organizationId } as never)
   if (!row) throw notFound(what)
   return row
