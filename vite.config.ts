@@ -3,7 +3,6 @@ import { defineConfig } from 'vitest/config'
 import vue from '@vitejs/plugin-vue'
 import Components from 'unplugin-vue-components/vite'
 import { ElementPlusResolver } from 'unplugin-vue-components/resolvers'
-import { JourneyOrder } from './tests/browser/support/sequencer'
 
 const apiPort = process.env.PORT ?? '8080'
 
@@ -24,7 +23,6 @@ export default defineConfig({
     testTimeout: 30_000,
     hookTimeout: 60_000,
     pool: 'forks',
-    sequence: { sequencer: JourneyOrder },
     projects: [
       // pure engine and shared code: no database, no DOM
       { extends: true, test: { name: 'engine', include: ['tests/electrical/**/*.test.ts', 'tests/shared/**/*.test.ts'] } },
@@ -47,7 +45,7 @@ export default defineConfig({
           include: ['tests/browser/**/*.test.ts'],
           globalSetup: ['tests/browser/support/global-app.ts'],
           testTimeout: 180_000,
-          // the journeys share one app and its demo data: one after the other, in file-name order (JourneyOrder)
+          // the journeys share one app and its demo data: one after the other
           fileParallelism: false,
         },
       },

@@ -47,6 +47,11 @@ export interface AppConfig {
   }
   /** Tests only (NODE_ENV=test): the worker stops without finishing when it reaches this step. */
   faultHangAtStep: string | null
+  /**
+   * Outside production: a pause after each generation step is reported [ms], so that a person (or
+   * the browser journey) can watch the progress bar move on a machine that draws a set in a blink.
+   */
+  stepPauseMs: number
   /** S3-compatible object storage; null: files on local disk under DATA_DIR/files. */
   s3: S3Settings | null
   /** Public address of the app, without a trailing slash: links in mails and the verification address printed on stamps. */
@@ -160,6 +165,7 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): AppConfig {
     },
     // a fault hook must never reach a real deployment
     faultHangAtStep: nodeEnv === 'test' ? env.STRINGLINE_FAULT_HANG_AT_STEP || null : null,
+    stepPauseMs: nodeEnv === 'production' ? 0 : wholeNumber(env, 'JOB_STEP_PAUSE_MS', 0),
     s3: objectStorage(env),
     appUrl: appUrl(env),
     mail: mailSettings(env),

@@ -54,7 +54,7 @@ export interface Attempt {
 export interface GeneratorDeps {
   db: DataSource
   storage: FileStorage
-  config: Pick<AppConfig, 'faultHangAtStep'>
+  config: Pick<AppConfig, 'faultHangAtStep' | 'stepPauseMs'>
   logger: Logger
 }
 
@@ -106,6 +106,7 @@ export class PlanSetGenerator {
 
   private async step(job: PackageJob, step: PackageStep): Promise<void> {
     await this.deps.db.getRepository(PackageJobEntity).update({ id: job.id, state: 'running' }, { step, progress: STEP_PROGRESS[step] })
+    if (this.deps.config.stepPauseMs) await new Promise((resolve) => setTimeout(resolve, this.deps.config.stepPauseMs))
     if (this.deps.config.faultHangAtStep === step) {
       this.deps.logger.warn({ step }, 'fault hook: hanging here (tests only)')
       await new Promise(() => {})

@@ -82,7 +82,8 @@ export default async function setup(project: TestProject) {
   chmodSync(dataDir, 0o755) // as root, the cluster runs as `postgres` and must reach the folder
   const port = await freePort()
   const pgPort = await freePort()
-  const env: NodeJS.ProcessEnv = { ...process.env, DATA_DIR: dataDir, PORT: String(port), PG_PORT: String(pgPort) }
+  // each generation step stays on screen a moment, so the journey can watch the bar move
+  const env: NodeJS.ProcessEnv = { ...process.env, DATA_DIR: dataDir, PORT: String(port), PG_PORT: String(pgPort), JOB_STEP_PAUSE_MS: '700' }
   // as a person runs `npm start`: no test mode from vitest, and never the test server's database
   delete env.NODE_ENV
   delete env.DATABASE_URL
