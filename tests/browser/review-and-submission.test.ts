@@ -67,7 +67,7 @@ async function takeStep(page: Page, label: string, fill: (dialog: ReturnType<Pag
 const statusIs = (page: Page, status: string) => page.getByText(status, { exact: true }).first().waitFor()
 
 async function asPerson<T>(role: keyof typeof EMAIL, appUrl: string, journey: (session: BrowserSession) => Promise<T>): Promise<T> {
-  const session = await openBrowser(role)
+  const session = await openBrowser(`permit-${role}`)
   try {
     await session.step('sign in', () => signIn(session, appUrl, EMAIL[role]))
     return await journey(session)
@@ -198,7 +198,7 @@ it('the designer asks for review, the reviewer comments and stamps, the coordina
   const middle = Math.floor(tampered.length / 2)
   tampered[middle] = tampered[middle]! ^ 0x20
 
-  const inspector = await openBrowser('verify')
+  const inspector = await openBrowser('permit-verify')
   try {
     const { page, step, shoot } = inspector
     await step('look the stamp up by its verification id, signed out', async () => {
