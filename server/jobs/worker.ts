@@ -7,6 +7,7 @@ import { createFileStorage } from '../storage'
 import { PlanSetGenerator } from './generate-plan-set'
 import { DIGEST_QUEUE, MAIL_QUEUE, MailQueue, type MailJobData } from './mail-queue'
 import { connectionStringOf, GENERATE_QUEUE, LOST_GENERATIONS_QUEUE, PackageQueue, type GenerateJobData } from './queue'
+import { utcDay } from '../calendar'
 
 export interface RunningWorker {
   /** Finishes the job in hand (up to a few seconds), then stops taking jobs. */
@@ -43,7 +44,7 @@ export async function startPackageWorker(deps: { db: DataSource; config: AppConf
   // pg-boss runs a schedule once per slot however many workers keep it
   await boss.schedule(DIGEST_QUEUE, config.mail.digestCron, {}, { tz: 'UTC' })
   await boss.work(DIGEST_QUEUE, { batchSize: 1, pollingIntervalSeconds }, async () => {
-    const queued = await notifications.sendDigest(new Date().toISOString().slice(0, 10))
+    const queued = await notifications.sendDigest(utcDay())
     logger.info({ queued }, 'daily digest queued')
   })
   logger.info({ queues: [GENERATE_QUEUE, MAIL_QUEUE] }, 'worker is waiting for jobs')

@@ -4,6 +4,7 @@ import {
   boardRowDto, dueItemDto, projectSubmissionDto, submissionBoardQuery, updateSubmissionBody, uploadedFileDto,
 } from '../../shared/schemas/submission'
 import { Download, pageResponse, Reply, route } from '../http/route'
+import { utcDay } from '../calendar'
 
 const projectParams = z.object({ id: z.string() })
 /** People who run the paperwork (the architecture guide's coordinator, with the administrator standing in). */
@@ -32,7 +33,7 @@ export const submissionRoutes = [
     summary: 'The filtered submission board as CSV (every row, not one page)',
     query: submissionBoardQuery,
     handler: async ({ user, query, services }) =>
-      new Download(await services.submissions.boardCsv(user!.organizationId, query), 'text/csv; charset=utf-8', `submissions-${new Date().toISOString().slice(0, 10)}.csv`),
+      new Download(await services.submissions.boardCsv(user!.organizationId, query), 'text/csv; charset=utf-8', `submissions-${utcDay()}.csv`),
   }),
   route({
     method: 'get',

@@ -3,6 +3,7 @@ import { PDFDocument } from 'pdf-lib'
 import type { DataSource, EntityManager } from 'typeorm'
 import {
   normalizeVerificationId,
+  VERIFICATION_ID_PATTERN,
   type FileVerificationDto,
   type StampCredentialsDto,
   type VerifiedStampDto,
@@ -21,6 +22,7 @@ import type { AuditService } from './audit-service'
 import { rethrowUnique } from './rows'
 import type { IncomingFile, UploadService } from './upload-service'
 import type { StepContext, WorkflowService } from './workflow-service'
+import { utcDay } from '../calendar'
 
 /** A PKCS#12 file holds a key and a few certificates: a few kilobytes. Ours (common practice, no source). */
 const CERTIFICATE_MAX_BYTES = 64 * 1024
@@ -35,7 +37,6 @@ function newVerificationId(): string {
   return `${chars.slice(0, 4).join('')}-${chars.slice(4, 8).join('')}-${chars.slice(8).join('')}`
 }
 
-const todayUtc = () => new Date().toISOString().slice(0, 10)
 const sha256 = (bytes: Uint8Array) => createHash('sha256').update(bytes).digest('hex')
 
 /** Width and height of a PNG from its IHDR chunk (PNG specification, 11.2.2), which follows the 8-byte signature. */
@@ -46,10 +47,13 @@ function pngSize(bytes: Buffer): { width: number; height: number } {
 /** What stamping prepares before its transaction: the files are in storage, the row is yet to be written. */
 type PreparedStamp = Omit<RevisionStamp, 'id' | 'transitionId' | 'createdAt'>
 
+/** A verification id anywhere in a text: the shared pattern without its anchors. */
+const VERIFICATION_ID_IN_TEXT = new RegExp(VERIFICATION_ID_PATTERN.source.slice(1, -1))
+
 /** The verification id a signed file names in its signature dictionary (we write it there when signing). */
 function verificationIdIn(texts: (string | null)[]): string | null {
   for (const t of texts) {
-    const found = t?.match(/[0-9A-HJKMNP-TV-Z]{4}-[0-9A-HJKMNP-TV-Z]{4}-[0-9A-HJKMNP-TV-Z]{4}/)
+    const found = t?.match(VERIFICATION_ID_IN_TEXT)
     if (found) return found[0]
   }
   return null
@@ -77,7 +81,7 @@ export class StampService {
     private readonly storage: FileStorage,
     private readonly config: Pick<AppConfig, 'appUrl'>,
     workflow: WorkflowService,
-    private readonly today: () => string = todayUtc,
+    private readonly today: () => string = utcDay,
   ) {
     workflow.onGuard('approve_and_stamp', (manager, step) => this.checkReady(manager, step))
     workflow.onStep<PreparedStamp>('approve_and_stamp', {
@@ -100,8 +104,8 @@ export class StampService {
     if (!user.stampImageFileId) problems.push({ field: 'stampImage', message: 'is missing from your profile; upload the PNG image of your stamp' })
     if (!user.certificateFileId || !user.certificateNotAfter) {
       problems.push({ field: 'certificate', message: 'is missing from your profile; upload your signing certificate (PKCS#12)' })
-    } else if (user.certificateNotAfter.toISOString().slice(0, 10) < this.today()) {
-      problems.push({ field: 'certificate', message: `your signing certificate expired on ${user.certificateNotAfter.toISOString().slice(0, 10)}; upload a current one` })
+    } else if (utcDay(user.certificateNotAfter) < this.today()) {
+      problems.push({ field: 'certificate', message: `your signing certificate expired on ${utcDay(user.certificateNotAfter)}; upload a current one` })
     }
     return problems
   }
@@ -153,8 +157,8 @@ export class StampService {
       throw payloadTooLarge(`A signing certificate file may be at most ${CERTIFICATE_MAX_BYTES / 1024} KB`, [{ field: 'file', message: `must be at most ${CERTIFICATE_MAX_BYTES} bytes` }])
     }
     const info = this.openCertificate(file.buffer, password, 'password')
-    if (info.notAfter.toISOString().slice(0, 10) < this.today()) {
-      throw unprocessable(`This certificate expired on ${info.notAfter.toISOString().slice(0, 10)}`, [{ field: 'file', message: 'has expired' }])
+    if (utcDay(info.notAfter) < this.today()) {
+      throw unprocessable(`This certificate expired on ${utcDay(info.notAfter)}`, [{ field: 'file', message: 'has expired' }])
     }
     await this.db.transaction(async (manager) => {
       const stored = await this.uploads.save(actor, file.buffer, 'application/x-pkcs12', file.originalname ? file.originalname.slice(-200) : 'certificate.p12', manager)
@@ -218,7 +222,7 @@ export class StampService {
     const verifyUrl = this.verifyUrl(verificationId)
     const unsigned = await stampPlanSet(await this.storage.get(planSet.sha256), revision.stampBoxes, {
       image, holderName: holder.name, licenceNumber: holder.licenceNumber, licenceRegion: holder.licenceRegion,
-      stampedOn: stampedAt.toISOString().slice(0, 10), verificationId, verifyUrl, demo: certificate.demo,
+      stampedOn: utcDay(stampedAt), verificationId, verifyUrl, demo: certificate.demo,
     })
     const signed = await signPdf(unsigned, p12, password, {
       reason: `Plan set ${project.code} revision ${revision.number} reviewed and stamped; verification ${verificationId}`,

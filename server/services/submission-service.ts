@@ -31,8 +31,8 @@ import type { ProjectService } from './project-service'
 import { containsPattern, updateAtVersion } from './rows'
 import type { IncomingFile, UploadService } from './upload-service'
 import type { StepContext, WorkflowService } from './workflow-service'
+import { utcDay } from '../calendar'
 
-const todayUtc = () => new Date().toISOString().slice(0, 10)
 const WHAT = 'Submission'
 
 /** `12345` cents as people read it: `123.45`, thousands grouped (`1,234.50`). */
@@ -43,7 +43,7 @@ const toCents = (amount: string) => {
   return Number(whole) * 100 + Number(fraction.padEnd(2, '0'))
 }
 
-const daysAfter = (isoDate: string, days: number) => new Date(Date.parse(`${isoDate}T00:00:00Z`) + days * 86_400_000).toISOString().slice(0, 10)
+const daysAfter = (isoDate: string, days: number) => utcDay(new Date(Date.parse(`${isoDate}T00:00:00Z`) + days * 86_400_000))
 
 /** Dates of things that already happened cannot lie ahead of today. */
 function notAfterToday(today: string, dates: Record<string, string | undefined>): FieldError[] {
@@ -93,7 +93,7 @@ export class SubmissionService {
     private readonly projects: ProjectService,
     private readonly uploads: UploadService,
     workflow: WorkflowService,
-    private readonly today: () => string = todayUtc,
+    private readonly today: () => string = utcDay,
   ) {
     for (const action of PAPERWORK_ACTIONS) {
       workflow.onGuard(action, async (_manager, step) => void this.details(action, step))

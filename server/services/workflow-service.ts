@@ -9,9 +9,9 @@ import { conflict, unprocessable, versionConflict } from '../http/errors'
 import type { AuditService } from './audit-service'
 import type { ProjectService } from './project-service'
 import { updateAtVersion } from './rows'
+import { utcDay } from '../calendar'
 
 const WHAT = 'Project'
-const todayUtc = () => new Date().toISOString().slice(0, 10)
 
 /** A step as the services that act on it see it. */
 export interface StepContext {
@@ -61,7 +61,7 @@ export class WorkflowService {
     private readonly audit: AuditService,
     private readonly projects: ProjectService,
     /** Today as YYYY-MM-DD, for licence expiry. */
-    private readonly today: () => string = todayUtc,
+    private readonly today: () => string = utcDay,
   ) {}
 
   private readonly effects = new Map<WorkflowAction, StepEffect>()
