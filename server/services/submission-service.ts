@@ -1,4 +1,5 @@
 import Papa from 'papaparse'
+import { SAFETY_CAUTION } from '../../shared/electrical/caution'
 import type { DataSource, EntityManager } from 'typeorm'
 import { STATUS_LABELS } from '../../shared/workflow'
 import {
@@ -353,13 +354,15 @@ export class SubmissionService {
     return { items: rows.map((r) => this.boardDto(r)), total, page: query.page, pageSize: query.pageSize }
   }
 
-  /** The whole filtered board as CSV (formula-looking cells escaped, as every CSV we write). */
+  /** The whole filtered board as CSV after a caution row (formula-looking cells escaped, as every CSV we write). */
   async boardCsv(organizationId: string, query: SubmissionBoardQuery): Promise<string> {
     const { rows } = await this.boardRows(organizationId, query, false)
     const data = rows.map((r) => this.boardDto(r)).map((b) => [
       b.project.code, b.project.name, STATUS_LABELS[b.project.status], b.project.jurisdiction?.name ?? '', b.submission ? SUBMISSION_METHOD_LABELS[b.submission.method] : '',
       b.submission?.submittedOn ?? '', b.submission?.ahjReference ?? '', b.submission?.permitNumber ?? '', b.submission?.openCorrectionItems ?? 0, b.nextDueOn ?? '', b.overdue ? 'yes' : 'no',
     ])
-    return Papa.unparse({ fields: [...BOARD_CSV_COLUMNS], data }, { escapeFormulae: true, newline: '\r\n' })
+    // the caution leads, as in every export (the calculations CSV puts it in its first row too)
+    const caution = ['Caution', SAFETY_CAUTION, ...BOARD_CSV_COLUMNS.slice(2).map(() => '')]
+    return Papa.unparse({ fields: [...BOARD_CSV_COLUMNS], data: [caution, ...data] }, { escapeFormulae: true, newline: '\r\n' })
   }
 }

@@ -1,5 +1,6 @@
 import request from 'supertest'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { SAFETY_CAUTION } from '../../shared/electrical/caution'
 import { ProjectEntity, UserEntity } from '../../server/entities'
 import { today, workflowSteps } from './support/workflow-steps'
 import { fieldsOf, startWorkspace, type Workspace } from './support/workspace'
@@ -108,9 +109,10 @@ describe('the submission board', () => {
     expect(res.status).toBe(200)
     expect(res.headers['content-type']).toContain('text/csv')
     const lines = res.text.split('\r\n')
-    expect(lines).toHaveLength(3)
-    expect(lines[1]).toContain(`"'=HYPERLINK(""http://evil.example"")"`)
-    expect(lines[2]).toMatch(/^CH-0102,.*,Permit issued,Cedar Hollow Building Department,At the counter,/)
+    expect(lines).toHaveLength(4)
+    expect(lines[1]).toContain(`Caution,"${SAFETY_CAUTION}"`)
+    expect(lines[2]).toContain(`"'=HYPERLINK(""http://evil.example"")"`)
+    expect(lines[3]).toMatch(/^CH-0102,.*,Permit issued,Cedar Hollow Building Department,At the counter,/)
   })
 })
 
