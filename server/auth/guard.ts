@@ -6,7 +6,7 @@ import type { AppConfig } from '../config'
 import { forbidden, unauthorized } from '../http/errors'
 import type { AuthService } from '../services/auth-service'
 import type { AuthUser } from './auth-user'
-import { JWT_ALGORITHM, JWT_AUDIENCE, JWT_ISSUER } from './tokens'
+import { JWT_ALGORITHM, JWT_AUDIENCE, JWT_ISSUER, jwtKey } from './tokens'
 
 interface JwtPayload {
   sub?: string
@@ -23,7 +23,8 @@ export function createAuthenticator(config: AppConfig, auth: AuthService) {
     new JwtStrategy(
       {
         jwtFromRequest: ExtractJwt.fromAuthHeaderAsBearerToken(),
-        secretOrKey: config.jwtSecret,
+        // passport-jwt hands the key to jsonwebtoken unchanged; its types predate KeyObject
+        secretOrKey: jwtKey(config.jwtSecret) as unknown as Buffer,
         algorithms: [JWT_ALGORITHM],
         issuer: JWT_ISSUER,
         audience: JWT_AUDIENCE,

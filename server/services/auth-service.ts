@@ -1,10 +1,10 @@
-import { randomUUID } from 'node:crypto'
+import { randomUUID, type KeyObject } from 'node:crypto'
 import { IsNull, type DataSource } from 'typeorm'
 import type { LoginBody, UserDto } from '../../shared/schemas/auth'
 import type { AuthUser } from '../auth/auth-user'
 import type { SignedInUsers } from '../auth/signed-in-users'
 import { decoyHash, verifyPassword } from '../auth/passwords'
-import { hashRefreshToken, newRefreshToken, signAccessToken } from '../auth/tokens'
+import { hashRefreshToken, jwtKey, newRefreshToken, signAccessToken } from '../auth/tokens'
 import type { AppConfig } from '../config'
 import { RefreshTokenEntity, UserEntity, type User } from '../entities'
 import { HttpError } from '../http/errors'
@@ -26,6 +26,7 @@ const invalidRefresh = () => new HttpError(401, 'invalid_refresh', 'Your session
 /** Sign-in, refresh-token rotation and sign-out. */
 export class AuthService {
   private readonly decoy: string
+  private readonly tokenKey: KeyObject
 
   constructor(
     private readonly db: DataSource,
@@ -36,6 +37,7 @@ export class AuthService {
     private readonly signedIn?: SignedInUsers,
   ) {
     this.decoy = decoyHash(config.bcryptCost)
+    this.tokenKey = jwtKey(config.jwtSecret)
   }
 
   async login(body: LoginBody): Promise<Session> {
@@ -102,7 +104,7 @@ export class AuthService {
       tokenHash: hashRefreshToken(refreshToken),
       expiresAt: new Date(Date.now() + this.config.refreshTokenTtlSeconds * 1000),
     })
-    const token = signAccessToken({ sub: user.id, org: user.organizationId, role: user.role }, this.config.jwtSecret, this.config.accessTokenTtlSeconds)
+    const token = signAccessToken({ sub: user.id, org: user.organizationId, role: user.role }, this.tokenKey, this.config.accessTokenTtlSeconds)
     return { token, refreshToken, user: await this.users.toDto(user) }
   }
 }
