@@ -53,7 +53,8 @@ export function createApp({ db, config, logger = pino({ level: config.logLevel }
       autoLogging: { ignore: (req) => req.url === '/api/health' },
     }),
   )
-  app.use('/api', cookieParser())
+  // only the session routes read a cookie (the refresh token)
+  app.use('/api/auth', cookieParser())
   // each route parses its own body: JSON, or multipart where it declares an upload
   app.use(mountRoutes(buildRoutes(config), services, requireRoles, config))
   app.use('/api', apiNotFound)

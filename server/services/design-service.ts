@@ -3,6 +3,7 @@ import { evaluateDocument } from '../../shared/electrical/evaluate'
 import { parseDesign, type DesignDocument } from '../../shared/schemas/design'
 import type { DesignDto, DesignEvaluationDto, SaveDesignBody } from '../../shared/schemas/project'
 import type { AuthUser } from '../auth/auth-user'
+import { preparedQuery } from '../db/prepared'
 import { DesignEntity, type Design } from '../entities'
 import { conflict, notFound, unprocessable, versionConflict } from '../http/errors'
 import type { AuditService } from './audit-service'
@@ -13,6 +14,13 @@ import type { WorkflowService } from './workflow-service'
 const WHAT = 'Design'
 /** Two first saves at once: the second finds the first one's row. */
 const FIRST_DESIGN_TAKEN = { designs_project_id_key: { field: 'version', message: 'Someone else saved this project\u2019s first design; reload it' } }
+
+/** A design as reads need it: without the stored evaluation, which is large and only the package uses. */
+type StoredDesign = Omit<Design, 'organizationId' | 'schemaVersion' | 'evaluation' | 'updatedBy'>
+const STORED_DESIGN_SQL = `SELECT id, project_id AS "projectId", document, system_kind AS "systemKind", nec_edition AS "necEdition",
+  module_count AS "moduleCount", dc_watts_stc AS "dcWattsStc", evaluation_status AS "evaluationStatus",
+  evaluated_version AS "evaluatedVersion", evaluated_at AS "evaluatedAt", created_at AS "createdAt", updated_at AS "updatedAt", version
+  FROM designs WHERE project_id = $1 AND organization_id = $2`
 
 /** Columns taken from the document for lists and reports. */
 export function indexedColumns(doc: DesignDocument) {
@@ -31,7 +39,7 @@ export class DesignService {
     private readonly workflow: WorkflowService,
   ) {}
 
-  private toDto(d: Design): DesignDto {
+  private toDto(d: StoredDesign): DesignDto {
     return {
       projectId: d.projectId,
       document: d.document,
@@ -49,9 +57,9 @@ export class DesignService {
     }
   }
 
-  /** One query when the design is there; the project is looked up only to say which of the two is missing. */
-  private async find(manager: EntityManager, organizationId: string, projectId: string): Promise<Design> {
-    const design = isUuid(projectId) ? await manager.getRepository(DesignEntity).findOneBy({ projectId, organizationId }) : null
+  /** One prepared query when the design is there; the project is looked up only to say which of the two is missing. */
+  private async find(manager: EntityManager, organizationId: string, projectId: string): Promise<StoredDesign> {
+    const [design] = isUuid(projectId) ? await preparedQuery<StoredDesign>(manager, STORED_DESIGN_SQL, [projectId, organizationId]) : []
     if (design) return design
     await this.projects.getOwned(organizationId, projectId, manager)
     throw notFound('Design of this project (none saved yet)')

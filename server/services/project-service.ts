@@ -1,23 +1,15 @@
-import { Brackets, In, type DataSource, type EntityManager } from 'typeorm'
+import type { DataSource, EntityManager } from 'typeorm'
 import type { Role } from '../../shared/auth/roles'
 import type { Page } from '../../shared/schemas/paging'
 import type { CreateProjectBody, ProjectDto, ProjectListQuery, UpdateProjectBody } from '../../shared/schemas/project'
 import type { AuthUser } from '../auth/auth-user'
 import { DesignEntity, JurisdictionProfileEntity, ProjectEntity, UserEntity, type Project } from '../entities'
-import { conflict, unprocessable, type FieldError } from '../http/errors'
+import { conflict, notFound, unprocessable, type FieldError } from '../http/errors'
 import type { AuditService } from './audit-service'
 import type { JurisdictionService } from './jurisdiction-service'
-import { containsPattern, findOwned, pageOf, peopleById, rethrowUnique, updateAtVersion } from './rows'
+import { projectPage, projectView } from './project-views'
+import { findOwned, isUuid, rethrowUnique, updateAtVersion } from './rows'
 
-const SORT_COLUMNS = {
-  code: 'p.code',
-  name: 'p.name',
-  customerName: 'p.customer_name',
-  status: 'p.status',
-  targetSubmissionDate: 'p.target_submission_date',
-  createdAt: 'p.created_at',
-  updatedAt: 'p.updated_at',
-}
 const UNIQUE_CODE = { projects_org_code_key: { field: 'code', message: 'Another project of the organisation has this code' } }
 const WHAT = 'Project'
 
@@ -40,81 +32,20 @@ export class ProjectService {
     return findOwned(manager, ProjectEntity, organizationId, id, WHAT)
   }
 
-  /** Project rows as the API shows them, with names of the jurisdiction and the people, in a few queries. */
-  async toDtos(rows: Project[], manager: EntityManager = this.db.manager): Promise<ProjectDto[]> {
-    if (!rows.length) return []
-    const jurisdictionIds = [...new Set(rows.map((r) => r.jurisdictionId).filter((v) => v !== null))]
-    const findPeople = () => peopleById(manager, rows.flatMap((r) => [r.designerId, r.reviewerId, r.coordinatorId]))
-    const findJurisdictions = async () =>
-      jurisdictionIds.length ? manager.getRepository(JurisdictionProfileEntity).find({ select: { id: true, name: true }, where: { id: In(jurisdictionIds) } }) : []
-    const findDesigns = () =>
-      manager.getRepository(DesignEntity).find({ select: { projectId: true, version: true, evaluationStatus: true, evaluatedVersion: true }, where: { projectId: In(rows.map((r) => r.id)) } })
-    // a transaction holds one connection, which takes one query at a time; the pool takes them together
-    const [person, jurisdictions, designs] = manager.queryRunner?.isTransactionActive
-      ? [await findPeople(), await findJurisdictions(), await findDesigns()]
-      : await Promise.all([findPeople(), findJurisdictions(), findDesigns()])
-    return rows.map((r) => {
-      const jurisdiction = jurisdictions.find((j) => j.id === r.jurisdictionId)
-      const design = designs.find((d) => d.projectId === r.id)
-      return {
-        id: r.id,
-        code: r.code,
-        name: r.name,
-        customerName: r.customerName,
-        customerEmail: r.customerEmail,
-        customerPhone: r.customerPhone,
-        siteAddress: r.siteAddress,
-        siteCity: r.siteCity,
-        jurisdiction: jurisdiction ? { id: jurisdiction.id, name: jurisdiction.name } : null,
-        utility: r.utility,
-        systemKind: r.systemKind,
-        status: r.status,
-        designer: person(r.designerId),
-        reviewer: person(r.reviewerId),
-        coordinator: person(r.coordinatorId),
-        targetSubmissionDate: r.targetSubmissionDate,
-        // a stored evaluation of an older version says nothing about the design as it is now
-        design: design ? { version: design.version, evaluationStatus: design.evaluatedVersion === design.version ? design.evaluationStatus : null } : null,
-        archivedAt: r.archivedAt?.toISOString() ?? null,
-        createdAt: r.createdAt.toISOString(),
-        updatedAt: r.updatedAt.toISOString(),
-        version: r.version,
-      }
-    })
+  /** A project as the API shows it, in one query; a foreign, unknown or malformed id is 404. */
+  async get(organizationId: string, id: string, manager: EntityManager = this.db.manager): Promise<ProjectDto> {
+    const view = isUuid(id) ? await projectView(manager, organizationId, id) : null
+    if (!view) throw notFound(WHAT)
+    return view
   }
 
-  async toDto(row: Project, manager: EntityManager = this.db.manager): Promise<ProjectDto> {
-    return (await this.toDtos([row], manager))[0]!
+  /** A project row as the API shows it, read again through `manager` so a transaction sees its own changes. */
+  toDto(row: Project, manager: EntityManager = this.db.manager): Promise<ProjectDto> {
+    return this.get(row.organizationId, row.id, manager)
   }
 
-  async get(organizationId: string, id: string): Promise<ProjectDto> {
-    return this.toDto(await this.getOwned(organizationId, id))
-  }
-
-  async list(organizationId: string, query: ProjectListQuery): Promise<Page<ProjectDto>> {
-    const qb = this.db
-      .getRepository(ProjectEntity)
-      .createQueryBuilder('p')
-      .where('p.organization_id = :organizationId', { organizationId })
-      .andWhere(query.archived ? 'p.archived_at IS NOT NULL' : 'p.archived_at IS NULL')
-    if (query.q) {
-      const pattern = containsPattern(query.q)
-      qb.andWhere(
-        new Brackets((w) =>
-          ['p.code', 'p.name', 'p.site_address', 'p.site_city', 'p.customer_name'].forEach((column, i) =>
-            i === 0 ? w.where(`${column} ILIKE :pattern`, { pattern }) : w.orWhere(`${column} ILIKE :pattern`, { pattern }),
-          ),
-        ),
-      )
-    }
-    if (query.status) qb.andWhere('p.status = :status', { status: query.status })
-    if (query.systemKind) qb.andWhere('p.system_kind = :systemKind', { systemKind: query.systemKind })
-    if (query.jurisdictionId) qb.andWhere('p.jurisdiction_id = :jurisdictionId', { jurisdictionId: query.jurisdictionId })
-    if (query.assigneeId) {
-      qb.andWhere(':assignee IN (p.designer_id, p.reviewer_id, p.coordinator_id)', { assignee: query.assigneeId })
-    }
-    const { rows, total } = await pageOf(qb, query, SORT_COLUMNS, '-updatedAt')
-    return { items: await this.toDtos(rows), total, page: query.page, pageSize: query.pageSize }
+  list(organizationId: string, query: ProjectListQuery): Promise<Page<ProjectDto>> {
+    return projectPage(this.db.manager, organizationId, query)
   }
 
   /** The jurisdiction and people named must belong to the organisation and, for people, have a fitting role. */

@@ -33,6 +33,14 @@ export interface PageRequest<S extends string> {
   sort?: S
 }
 
+/** The column a sort names (`name` ascending, `-name` descending) by the map of sortable columns. */
+export function sortOf(sort: string, columns: Record<string, string>): { column: string; descending: boolean } {
+  const descending = sort.startsWith('-')
+  const column = columns[descending ? sort.slice(1) : sort]
+  if (!column) throw new Error(`no column for sort ${sort}`)
+  return { column, descending }
+}
+
 /**
  * Sorts (`name` ascending, `-name` descending, by the column the map names; the id breaks ties so
  * pages never overlap), pages and counts a query.
@@ -43,10 +51,7 @@ export async function pageOf<E extends ObjectLiteral, S extends string>(
   columns: Record<string, string>,
   defaultSort: S,
 ): Promise<{ rows: E[]; total: number }> {
-  const sort = request.sort ?? defaultSort
-  const descending = sort.startsWith('-')
-  const column = columns[descending ? sort.slice(1) : sort]
-  if (!column) throw new Error(`no column for sort ${sort}`)
+  const { column, descending } = sortOf(request.sort ?? defaultSort, columns)
   qb.orderBy(column, descending ? 'DESC' : 'ASC', descending ? 'NULLS LAST' : 'NULLS FIRST').addOrderBy(`${qb.alias}.id`, 'ASC')
   qb.skip((request.page - 1) * request.pageSize).take(request.pageSize)
   const [rows, total] = await qb.getManyAndCount()

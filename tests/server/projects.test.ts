@@ -39,6 +39,14 @@ describe('projects', () => {
     expect(mine.body.items[0].jurisdiction.name).toBe('Cedar Hollow Building Department')
     expect(mine.body.items[0].design).toEqual({ version: 1, evaluationStatus: null })
 
+    const byJurisdiction = await request(w.h.app).get(`/api/projects?jurisdictionId=${mine.body.items[0].jurisdiction.id}`).set(w.as('designer'))
+    expect(byJurisdiction.body.total).toBe(4)
+    const pastTheEnd = await request(w.h.app).get('/api/projects?pageSize=2&page=9').set(w.as('designer'))
+    expect(pastTheEnd.body).toMatchObject({ items: [], total: 4, page: 9 })
+    // the search text is matched literally, not as a LIKE pattern
+    const wildcard = await request(w.h.app).get('/api/projects?q=%25').set(w.as('designer'))
+    expect(wildcard.body.total).toBe(0)
+
     const foreign = await request(w.h.app).get('/api/projects').set(w.asForeign('admin'))
     expect(foreign.body.total).toBe(0)
   })
@@ -86,6 +94,17 @@ describe('projects', () => {
       .send({ ...newProject('CH-0210'), jurisdictionId: foreignProfile.body.jurisdiction.id, reviewerId: w.userIds.designer, designerId: w.userIds.reviewer })
     expect(res.status).toBe(422)
     expect(fieldsOf(res)).toEqual(['designerId', 'jurisdictionId', 'reviewerId'])
+  })
+
+  it('sorts by target date, empty dates first going up and last going down, and answers dates as YYYY-MM-DD', async () => {
+    const { id } = w.projects['CH-0102']!
+    const current = (await request(w.h.app).get(`/api/projects/${id}`).set(w.as('designer'))).body.project
+    const dated = await request(w.h.app).patch(`/api/projects/${id}`).set(w.as('designer')).send({ version: current.version, targetSubmissionDate: '2027-01-15' })
+    expect(dated.body.project.targetSubmissionDate).toBe('2027-01-15')
+    const codesBy = async (sort: string) =>
+      (await request(w.h.app).get(`/api/projects?sort=${sort}`).set(w.as('designer'))).body.items.map((p: { code: string; targetSubmissionDate: string | null }) => `${p.code} ${p.targetSubmissionDate}`)
+    expect((await codesBy('targetSubmissionDate')).at(-1)).toBe('CH-0102 2027-01-15')
+    expect((await codesBy('-targetSubmissionDate'))[0]).toBe('CH-0102 2027-01-15')
   })
 
   it('a foreign or malformed project id answers 404 to read and write', async () => {
