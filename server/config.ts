@@ -1,5 +1,6 @@
 import { randomBytes } from 'node:crypto'
 import { existsSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs'
+import { availableParallelism } from 'node:os'
 import path from 'node:path'
 import { readS3Settings, S3SettingsError, type S3Settings } from './storage/s3-config'
 
@@ -8,6 +9,8 @@ export interface AppConfig {
   nodeEnv: 'production' | 'development' | 'test'
   port: number
   host: string
+  /** API processes sharing the port on this machine (server/api-cluster.ts); 1 runs the API in the started process. */
+  apiProcesses: number
   /** Git-ignored folder for the local cluster, generated secrets and stored files. */
   dataDir: string
   jwtSecret: string
@@ -143,6 +146,7 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): AppConfig {
     nodeEnv,
     port: positiveInt(env, 'PORT', 8080),
     host: env.HOST ?? '127.0.0.1',
+    apiProcesses: apiProcesses(env),
     dataDir,
     jwtSecret: resolveJwtSecret(env, nodeEnv, dataDir),
     accessTokenTtlSeconds,
@@ -170,6 +174,16 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): AppConfig {
     appUrl: appUrl(env),
     mail: mailSettings(env),
   }
+}
+
+const MAX_API_PROCESSES = 64
+
+/** API_PROCESSES: a number, or `cores` for one per CPU core. */
+function apiProcesses(env: NodeJS.ProcessEnv): number {
+  if (env.API_PROCESSES === 'cores') return availableParallelism()
+  const count = positiveInt(env, 'API_PROCESSES', 1)
+  if (count > MAX_API_PROCESSES) throw new ConfigError(`API_PROCESSES must be at most ${MAX_API_PROCESSES}, or "cores"`)
+  return count
 }
 
 function appUrl(env: NodeJS.ProcessEnv): string {

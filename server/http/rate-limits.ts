@@ -1,5 +1,7 @@
+import cluster from 'node:cluster'
+import { ClusterMemoryStoreWorker } from '@express-rate-limit/cluster-memory-store'
 import type { RequestHandler } from 'express'
-import { rateLimit } from 'express-rate-limit'
+import { rateLimit, type Store } from 'express-rate-limit'
 import type { AppConfig } from '../config'
 import { HttpError } from './errors'
 
@@ -8,11 +10,21 @@ const WINDOW_MS = 15 * 60 * 1000
 const tooMany = (message: string): RequestHandler => (_req, _res, next) => next(new HttpError(429, 'rate_limited', message))
 
 /**
+ * Where a limiter counts: in this process, or, when the API runs as a cluster of processes
+ * (API_PROCESSES > 1, server/api-cluster.ts), in the cluster's primary so that every process
+ * shares one count. `name` keeps the limiters' counts apart.
+ */
+function counter(name: string): { store?: Store } {
+  return cluster.isWorker ? { store: new ClusterMemoryStoreWorker({ prefix: `${name}:` }) } : {}
+}
+
+/**
  * Sign-in limits: every attempt counts per client address, failed attempts count per account.
- * The store is per process; behind several API processes each keeps its own count.
+ * Separate API machines (not one machine's cluster) each keep their own count.
  */
 export function loginRateLimits(config: AppConfig): RequestHandler[] {
   const perIp = rateLimit({
+    ...counter('login-address'),
     windowMs: WINDOW_MS,
     limit: config.loginLimitPerIp,
     standardHeaders: 'draft-8',
@@ -20,6 +32,7 @@ export function loginRateLimits(config: AppConfig): RequestHandler[] {
     handler: tooMany('Too many sign-in attempts from this address; wait 15 minutes and try again'),
   })
   const perAccount = rateLimit({
+    ...counter('login-account'),
     windowMs: WINDOW_MS,
     limit: config.loginLimitPerAccount,
     standardHeaders: false,
@@ -32,8 +45,9 @@ export function loginRateLimits(config: AppConfig): RequestHandler[] {
 }
 
 /** Public look-ups (stamp verification): per client address, so nobody can walk the verification ids or flood the checker. */
-export function publicLookupRateLimit(limit = 120): RequestHandler {
+export function publicLookupRateLimit(name: string, limit = 120): RequestHandler {
   return rateLimit({
+    ...counter(name),
     windowMs: WINDOW_MS,
     limit,
     standardHeaders: 'draft-8',

@@ -5,10 +5,11 @@ export const healthRoutes = [
     method: 'get',
     path: '/api/health',
     access: 'public',
-    summary: 'Liveness and database reachability',
+    summary: 'Liveness, database reachability and, when the API runs as several processes, how many of them listen',
     handler: async ({ services }) => {
       const up = await services.health.databaseUp()
-      return up ? { status: 'ok', db: 'up' } : new Reply(503, { status: 'degraded', db: 'down' })
+      const apiProcesses = services.health.apiProcesses() ?? undefined
+      return up ? { status: 'ok', db: 'up', apiProcesses } : new Reply(503, { status: 'degraded', db: 'down', apiProcesses })
     },
   }),
 ]

@@ -30,7 +30,14 @@ describe('configuration', () => {
 
   it('defaults to the documented address and limits', () => {
     const config = loadConfig({ JWT_SECRET: 'y'.repeat(40) })
-    expect(config).toMatchObject({ host: '127.0.0.1', port: 8080, bcryptCost: 12, accessTokenTtlSeconds: 600 })
+    expect(config).toMatchObject({ host: '127.0.0.1', port: 8080, bcryptCost: 12, accessTokenTtlSeconds: 600, apiProcesses: 1 })
+  })
+
+  it('runs the API as a number of processes, or one per core, and refuses anything else', () => {
+    const secret = { JWT_SECRET: 'y'.repeat(40) }
+    expect(loadConfig({ ...secret, API_PROCESSES: '3' }).apiProcesses).toBe(3)
+    expect(loadConfig({ ...secret, API_PROCESSES: 'cores' }).apiProcesses).toBe(os.availableParallelism())
+    for (const bad of ['0', '-2', '1.5', 'many', '65']) expect(() => loadConfig({ ...secret, API_PROCESSES: bad })).toThrow(/API_PROCESSES/)
   })
 
   it('takes object storage only with every S3 setting, and names what is missing', () => {
