@@ -7,7 +7,7 @@ import {
 } from '../../scripts/lib/postgres-cluster'
 import { REPOSITORY_ROOT } from '../../tests/browser/support/paths'
 
-export interface ThrowawayServer { url: string; stop(): Promise<void> }
+export interface ThrowawayServer { url: string; databaseUrl: string; stop(): Promise<void> }
 
 const STARTUP_LIMIT_MS = 120_000
 
@@ -25,7 +25,9 @@ export async function startThrowawayServer(env: Record<string, string> = {}): Pr
   startCluster(bin, cluster)
   await ensureDatabase(clusterUrl(cluster), 'stringline')
   const port = await freePort()
-  const api = spawn(process.execPath, ['--import', 'tsx', 'server/main.ts'], {
+  // BENCH_CPU_PROFILE_DIR: the API process writes a V8 CPU profile there when it stops
+  const profile = process.env.BENCH_CPU_PROFILE_DIR ? ['--cpu-prof', `--cpu-prof-dir=${process.env.BENCH_CPU_PROFILE_DIR}`] : []
+  const api = spawn(process.execPath, [...profile, '--import', 'tsx', 'server/main.ts'], {
     cwd: REPOSITORY_ROOT,
     stdio: ['ignore', 'inherit', 'inherit'],
     env: {
@@ -55,14 +57,25 @@ export async function startThrowawayServer(env: Record<string, string> = {}): Pr
   const url = `http://127.0.0.1:${port}`
   const deadline = Date.now() + STARTUP_LIMIT_MS
   for (;;) {
-    const up = await fetch(`${url}/api/health`).then((r) => r.ok, () => false)
-    if (up) return { url, stop }
+    if (await allListening(url)) return { url, databaseUrl: clusterUrl(cluster, 'stringline'), stop }
     if (api.exitCode !== null || Date.now() > deadline) {
       await stop()
       throw new Error(`the API process did not come up at ${url} (exit ${api.exitCode})`)
     }
     await new Promise((resolve) => setTimeout(resolve, 250))
   }
+}
+
+/**
+ * Whether the API answers its health check with every one of its processes listening: connections
+ * made while only the first of a cluster's processes listens would all stay with that one.
+ */
+async function allListening(url: string): Promise<boolean> {
+  const health = await fetch(`${url}/api/health`).then(
+    async (r) => (r.ok ? ((await r.json()) as { apiProcesses?: { listening: number; configured: number } }) : null),
+    () => null,
+  )
+  return health !== null && (!health.apiProcesses || health.apiProcesses.listening === health.apiProcesses.configured)
 }
 
 /** Signs in over HTTP and answers the access token. */
