@@ -26,13 +26,15 @@ export class MailQueue {
   ) {}
 
   boss(): Promise<PgBoss> {
-    this.ready ??= this.queue.boss().then(async (boss) => {
-      const policy = { name: MAIL_QUEUE, retryLimit: MAIL_RETRY_LIMIT, retryDelay: this.jobs.retryDelaySeconds, retryBackoff: true, expireInSeconds: 120 }
-      await boss.createQueue(MAIL_QUEUE, policy)
-      await boss.updateQueue(MAIL_QUEUE, policy)
-      await boss.createQueue(DIGEST_QUEUE, { name: DIGEST_QUEUE, retryLimit: 2, expireInSeconds: 600 })
-      return boss
-    })
+    this.ready ??= this.queue.boss().then((boss) =>
+      this.queue.settingUp(async () => {
+        const policy = { name: MAIL_QUEUE, retryLimit: MAIL_RETRY_LIMIT, retryDelay: this.jobs.retryDelaySeconds, retryBackoff: true, expireInSeconds: 120 }
+        await boss.createQueue(MAIL_QUEUE, policy)
+        await boss.updateQueue(MAIL_QUEUE, policy)
+        await boss.createQueue(DIGEST_QUEUE, { name: DIGEST_QUEUE, retryLimit: 2, expireInSeconds: 600 })
+        return boss
+      }),
+    )
     this.ready.catch(() => (this.ready = undefined))
     return this.ready
   }

@@ -1,3 +1,4 @@
+import pg from 'pg'
 import PgBoss from 'pg-boss'
 import type { DataSource, EntityManager } from 'typeorm'
 import type { AppConfig } from '../config'
@@ -8,6 +9,8 @@ export const GENERATE_QUEUE = 'plan-set.generate'
 export const LOST_GENERATIONS_QUEUE = 'plan-set.generate.lost'
 /** pg-boss keeps its tables apart from ours. */
 const QUEUE_SCHEMA = 'pgboss'
+/** Advisory lock key ("STLQ") held while a process makes or updates the queues. */
+const QUEUE_SETUP_LOCK = 0x53544c51
 
 export interface GenerateJobData {
   packageJobId: string
@@ -61,19 +64,37 @@ export class PackageQueue {
       schedule: this.role === 'worker',
     })
     boss.on('error', this.onError)
-    await boss.start()
-    await boss.createQueue(LOST_GENERATIONS_QUEUE)
-    const policy = {
-      name: GENERATE_QUEUE,
-      retryLimit: this.jobs.retryLimit,
-      retryDelay: this.jobs.retryDelaySeconds,
-      expireInSeconds: this.jobs.expireSeconds,
-      deadLetter: LOST_GENERATIONS_QUEUE,
-    }
-    await boss.createQueue(GENERATE_QUEUE, policy)
-    // a queue made by an earlier start keeps its settings unless told the new ones
-    await boss.updateQueue(GENERATE_QUEUE, policy)
+    await this.settingUp(async () => {
+      await boss.start()
+      await boss.createQueue(LOST_GENERATIONS_QUEUE)
+      const policy = {
+        name: GENERATE_QUEUE,
+        retryLimit: this.jobs.retryLimit,
+        retryDelay: this.jobs.retryDelaySeconds,
+        expireInSeconds: this.jobs.expireSeconds,
+        deadLetter: LOST_GENERATIONS_QUEUE,
+      }
+      await boss.createQueue(GENERATE_QUEUE, policy)
+      // a queue made by an earlier start keeps its settings unless told the new ones
+      await boss.updateQueue(GENERATE_QUEUE, policy)
+    })
     return boss
+  }
+
+  /**
+   * Runs `setup` (making or updating queues) while this process holds the queue-setup advisory
+   * lock: processes starting together on a fresh database otherwise deadlock inside pg-boss's
+   * queue creation. Ending the lock's own connection releases it, also when `setup` fails.
+   */
+  async settingUp<T>(setup: () => Promise<T>): Promise<T> {
+    const lock = new pg.Client({ connectionString: this.connectionString, application_name: `stringline-${this.role}-setup` })
+    await lock.connect()
+    try {
+      await lock.query('SELECT pg_advisory_lock($1)', [QUEUE_SETUP_LOCK])
+      return await setup()
+    } finally {
+      await lock.end()
+    }
   }
 
   /** Queues a generation; with `manager`, inside that transaction, so a rollback takes the job back too. */

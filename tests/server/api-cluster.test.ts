@@ -29,18 +29,21 @@ function freshCall(method: string, path: string, body?: unknown): Promise<{ stat
       res.on('end', () => resolve({ status: res.statusCode ?? 0, body: JSON.parse(Buffer.concat(chunks).toString('utf8') || '{}') as Record<string, unknown> }))
     })
     req.on('error', reject)
+    // a connection handed to a process in the instant it is killed is lost: give up on it and ask again
+    req.setTimeout(2000, () => req.destroy(new Error('no answer within 2 s')))
     req.end(payload)
   })
 }
 
-/** Process ids whose parent is `pid` (from /proc). */
-function childrenOf(pid: number): number[] {
+/** API processes of the cluster whose primary is `pid`: its children running server/main.ts (from /proc). */
+function apiProcessesOf(pid: number): number[] {
   return readdirSync('/proc')
     .filter((entry) => /^\d+$/.test(entry))
     .filter((entry) => {
       try {
         // the command name in field 2 may hold spaces; the parent id follows its closing parenthesis
-        return Number(readFileSync(`/proc/${entry}/stat`, 'utf8').split(') ')[1]!.split(' ')[1]) === pid
+        const parent = Number(readFileSync(`/proc/${entry}/stat`, 'utf8').split(') ')[1]!.split(' ')[1])
+        return parent === pid && readFileSync(`/proc/${entry}/cmdline`, 'utf8').includes('server/main.ts')
       } catch {
         return false
       }
@@ -48,7 +51,8 @@ function childrenOf(pid: number): number[] {
     .map(Number)
 }
 
-const processCount = async () => (await freshCall('GET', '/api/health').catch(() => ({ status: 0, body: {} as Record<string, unknown> }))).body.apiProcesses as { listening: number; configured: number } | undefined
+const processCount = async () =>
+  (await freshCall('GET', '/api/health').catch(() => ({ status: 0, body: {} as Record<string, unknown> }))).body.apiProcesses as { listening: number; configured: number } | undefined
 
 beforeAll(async () => {
   h = await startHarness()
@@ -92,7 +96,7 @@ it('prepares the database once in the primary and answers from every process, wh
     expect(health.status).toBe(200)
     expect(health.body).toEqual({ status: 'ok', db: 'up', apiProcesses: { listening: 2, configured: 2 } })
   }
-  expect(childrenOf(primary.pid!)).toHaveLength(2)
+  expect(apiProcessesOf(primary.pid!)).toHaveLength(2)
 })
 
 it('counts failed sign-ins for an account across the processes (429 after the limit, whichever process answers)', async () => {
@@ -104,12 +108,14 @@ it('counts failed sign-ins for an account across the processes (429 after the li
 })
 
 it('starts another API process when one dies, and SIGTERM stops them all', async () => {
-  const [victim] = childrenOf(primary.pid!)
+  const [victim] = apiProcessesOf(primary.pid!)
   process.kill(victim!, 'SIGKILL')
-  await waitFor(async () => (await processCount())?.listening === 1, 'the cluster to notice the loss', 10_000, 50)
-  await waitFor(async () => (await processCount())?.listening === 2 && !childrenOf(primary.pid!).includes(victim!), 'a replacement to listen', 60_000, 250)
+  await waitFor(() => !apiProcessesOf(primary.pid!).includes(victim!), 'the killed process to be gone', 10_000, 50)
+  await waitFor(async () => apiProcessesOf(primary.pid!).length === 2 && (await processCount())?.listening === 2, 'a replacement to listen', 60_000, 250)
+  // the survivor kept answering meanwhile, and the replacement answers too
+  for (let i = 0; i < 4; i++) expect((await freshCall('GET', '/api/health')).status).toBe(200)
 
-  const workers = childrenOf(primary.pid!)
+  const workers = apiProcessesOf(primary.pid!)
   const exited = new Promise<number | null>((resolve) => primary.once('exit', (code) => resolve(code)))
   primary.kill('SIGTERM')
   expect(await exited).toBe(0)
